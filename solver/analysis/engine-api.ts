@@ -1,0 +1,87 @@
+/**
+ * The contract between the numerical engine (MNA, devices, DC, AC) and the layers above it
+ * (ports, measures, checks, the CLI). Types only; implemented in this folder.
+ *
+ * Functions implementing it (one file per algorithm):
+ *   operating-point.ts  solveOperatingPoint(circuit): OperatingPoint | OpFailure
+ *   small-signal.ts     linearize(circuit, op): LinearSystem
+ *   ac-solve.ts         createAcSolver(system): AcSolver
+ *   dc-sweep.ts         dcSweep(circuit, source, values, start?): DcSweepResult
+ */
+import type { Diagnostic } from '../circuit/diagnostic';
+import type { Circuit } from '../circuit/types';
+import type { OpResult } from '../result';
+
+/** A converged DC operating point. */
+export interface OperatingPoint {
+  circuit: Circuit;
+  /** The raw MNA solution vector (node voltages then branch currents), for warm starts. */
+  x: Float64Array;
+  /** Index of each node's voltage in `x` (ground absent). */
+  nodeIndex: Map<string, number>;
+  /** Index of each branch current (voltage sources, inductors, vcvs) in `x`. */
+  branchIndex: Map<string, number>;
+  /** The §5 `op` member, ready to print. */
+  report: OpResult;
+  /** Region warnings (saturated bipolar, MOS triode/cut-off …), one per device. */
+  warnings: Diagnostic[];
+  /** What it took: 'newton' | 'gmin-stepping' | 'source-stepping', and iterations. */
+  method: string;
+  iterations: number;
+}
+
+export interface OpFailure {
+  failed: true;
+  /** Errors naming the worst nodes and what was tried. */
+  errors: Diagnostic[];
+}
+
+/**
+ * The linearised circuit at an operating point: (G + sC)·x = b(s) over the same unknowns as the
+ * DC system. Independent sources contribute nothing until an excitation is given.
+ */
+export interface LinearSystem {
+  size: number;
+  nodeIndex: Map<string, number>;
+  branchIndex: Map<string, number>;
+  /** Row-major size×size conductance matrix. */
+  G: Float64Array;
+  /** Row-major size×size capacitance (and inductance) matrix. */
+  C: Float64Array;
+  /** Names of independent sources and how to excite each: voltage sources by their branch row. */
+  sources: Map<string, { kind: 'vsrc'; row: number } | { kind: 'isrc'; from: number; to: number }>;
+}
+
+/** Complex phasor as a pair, to avoid allocation in the hot loop. */
+export interface Phasor { re: number; im: number }
+
+/** What drives the AC system in one solve. */
+export interface Excitation {
+  /** Independent source name → phasor (volts for vsrc, amperes for isrc). Unlisted sources are zero. */
+  sources?: Map<string, Phasor>;
+  /** Test currents injected INTO a node from ground (for zout): node name → phasor. */
+  injections?: Map<string, Phasor>;
+}
+
+/** Solution of one AC solve. */
+export interface AcSolution {
+  /** Node voltage phasor (0 for `gnd`). */
+  v(node: string): Phasor;
+  /** Branch current phasor of a voltage source / inductor / vcvs, p→n through it. */
+  branch(name: string): Phasor;
+}
+
+/**
+ * Solves the linear system at one frequency for one or more excitations, reusing storage:
+ * one factorisation per frequency, one back-substitution per excitation.
+ */
+export interface AcSolver {
+  solve(freqHz: number, excitations: Excitation[]): AcSolution[];
+}
+
+export interface DcSweepResult {
+  x: number[];
+  /** One report per converged point (same length as x). */
+  points: OpResult[];
+  errors: Diagnostic[];
+}

@@ -1,0 +1,26 @@
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  test: {
+    projects: [
+      {
+        test: {
+          name: 'solver',
+          include: ['solver/**/*.test.ts', 'test/reference/**/*.test.ts'],
+          environment: 'node',
+        },
+      },
+      {
+        test: {
+          name: 'api',
+          include: ['api/**/*.test.ts', 'test/api/**/*.test.ts'],
+          environment: 'node',
+          globalSetup: ['test/api/global-setup.ts'],
+          fileParallelism: false,
+          testTimeout: 20000,
+          hookTimeout: 30000,
+        },
+      },
+    ],
+  },
+});
