@@ -1,0 +1,155 @@
+/**
+ * Evaluates `measure` and `check` statements with mathjs over one solved circuit.
+ *
+ * Scope, in order of precedence (later wins): the netlist's params, the measures evaluated so
+ * far, adm/acm/cmrr/cmrr_db from the ports, then the measure functions. A measure must come out
+ * as a finite real number; anything else (a complex value, a curve, an unknown name, a function
+ * used on the wrong kind of device…) is an error diagnostic on the statement's line.
+ */
+import type { MathNode } from 'mathjs';
+import type { CheckRequest, MeasureRequest } from '../circuit/analyses';
+import type { Diagnostic, SourceLoc } from '../circuit/diagnostic';
+import type { CheckResult } from '../result';
+import { fromPhasor, measureFunctions, CURVE_FUNCTIONS, PORTS_CURVE_NAMES, type MeasureContext } from './functions';
+import { isEffectivelyReal } from './complex';
+import { MeasureError, didYouMean } from './measure-error';
+import { measureMath } from './math';
+import { evaluateCheck } from './checks';
+
+export interface MeasureOutcome {
+  measures: Record<string, number>;
+  checks: CheckResult[];
+  diagnostics: Diagnostic[];
+}
+
+/** Names a measure may not take: they already mean something in expressions. */
+const PORTS_NAMES = ['adm', 'acm', 'cmrr', 'cmrr_db'];
+
+function diagnostic(loc: SourceLoc, message: string, hint?: string): Diagnostic {
+  return { severity: 'error', code: 'measure-error', line: loc.line, col: loc.col, ...(loc.endCol ? { endCol: loc.endCol } : {}), message, ...(hint ? { hint } : {}) };
+}
+
+/** Inside at/corner/unity/margin the bare names adm, acm, cmrr stand for their curves. */
+function markCurveNames(node: MathNode): MathNode {
+  return node.transform((child, _path, parent) => {
+    const p = parent as unknown as { type?: string; fn?: { name?: string }; args?: MathNode[] } | null;
+    const c = child as unknown as { type: string; name?: string };
+    if (
+      c.type === 'SymbolNode' &&
+      (PORTS_CURVE_NAMES as readonly string[]).includes(c.name ?? '') &&
+      p?.type === 'FunctionNode' &&
+      (CURVE_FUNCTIONS as readonly string[]).includes(p.fn?.name ?? '') &&
+      p.args?.[0] === child
+    ) {
+      return measureMath.parse(JSON.stringify(c.name));
+    }
+    return child;
+  });
+}
+
+/** Reads a mathjs value as a finite real number, or explains why it is not one. */
+function toMeasureValue(what: string, value: unknown): number {
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) throw new MeasureError(`${what} is not a finite number (${value}).`, 'look for a division by zero or a log of zero');
+    return value;
+  }
+  if (typeof value === 'object' && value !== null && 're' in value && 'im' in value) {
+    const z = value as { re: number; im: number };
+    if (isEffectivelyReal(z)) return toMeasureValue(what, z.re);
+    throw new MeasureError(`${what} is complex (${+z.re.toPrecision(4)} ${z.im < 0 ? '−' : '+'} ${+Math.abs(z.im).toPrecision(4)}i).`, 'take mag(), db() or phase() of it');
+  }
+  if (typeof value === 'object' && value !== null && 'freqHz' in value) {
+    throw new MeasureError(`${what} is a whole curve, not a number.`, 'use at(curve, f), corner(), unity() or margin()');
+  }
+  if (typeof value === 'boolean') throw new MeasureError(`${what} is a comparison, not a number.`, 'write comparisons as `check` statements');
+  if (typeof value === 'string') throw new MeasureError(`${what} is the name \`${value}\`, not a number.`, `write v(${value}) for a node voltage`);
+  throw new MeasureError(`${what} is not a number.`);
+}
+
+/** mathjs messages for unknown names, rephrased with suggestions. */
+function explain(err: unknown, scopeNames: string[], functionNames: string[], failed: Map<string, number>): { message: string; hint?: string } {
+  if (err instanceof MeasureError) return { message: err.message, hint: err.hint };
+  const text = err instanceof Error ? err.message : String(err);
+  const symbol = /^Undefined symbol (\S+)/.exec(text);
+  if (symbol) {
+    const name = symbol[1];
+    const line = failed.get(name);
+    if (line !== undefined) return { message: `\`${name}\` has an error of its own (line ${line}).`, hint: `fix the measure \`${name}\` first` };
+    if ((PORTS_CURVE_NAMES as readonly string[]).includes(name) || name === 'cmrr_db') {
+      return { message: `\`${name}\` needs a \`ports\` statement.`, hint: 'add `ports in=(va, vb) out=(outa, outb)`' };
+    }
+    return { message: `unknown name \`${name}\`.`, hint: didYouMean(name, [...scopeNames, ...functionNames]) ?? 'names here are params, earlier measures, adm, acm, cmrr, cmrr_db' };
+  }
+  const fn = /^Undefined function (\S+)/.exec(text);
+  if (fn) return { message: `unknown function \`${fn[1]}\`.`, hint: didYouMean(fn[1], functionNames) };
+  if (/Unexpected|Parenthesis|Syntax|Value expected|char \d+/.test(text)) return { message: `cannot read the expression: ${text}.` };
+  return { message: text };
+}
+
+/**
+ * Evaluates the measures in order (each may use the earlier ones), then the checks.
+ * Never throws.
+ */
+export function evaluateMeasures(measureRequests: MeasureRequest[], checkRequests: CheckRequest[], ctx: MeasureContext): MeasureOutcome {
+  const functions = measureFunctions(ctx);
+  const functionNames = Object.keys(functions);
+  const scope = new Map<string, unknown>();
+  for (const [k, v] of Object.entries(ctx.params)) scope.set(k, v);
+  const setPortsNames = () => {
+    if (!ctx.ports) return;
+    scope.set('adm', fromPhasor(ctx.ports.adm));
+    scope.set('acm', fromPhasor(ctx.ports.acm));
+    scope.set('cmrr', ctx.ports.cmrr);
+    scope.set('cmrr_db', ctx.ports.cmrrDb);
+  };
+  const setFunctions = () => {
+    for (const [k, f] of Object.entries(functions)) scope.set(k, f);
+  };
+  setPortsNames();
+  setFunctions();
+
+  const measures: Record<string, number> = {};
+  const failed = new Map<string, number>();
+  const diagnostics: Diagnostic[] = [];
+  const scopeNames = () => [...scope.keys()].filter((k) => typeof scope.get(k) !== 'function');
+
+  const evaluate = (what: string, expr: string): number => {
+    const node = markCurveNames(measureMath.parse(expr));
+    return toMeasureValue(what, node.compile().evaluate(scope));
+  };
+
+  for (const m of measureRequests) {
+    if (PORTS_NAMES.includes(m.name) || m.name in functions) {
+      diagnostics.push(diagnostic(m.loc, `measure \`${m.name}\`: the name is taken by ${m.name in functions ? 'a function' : 'a ports figure'}.`, 'choose another name'));
+      failed.set(m.name, m.loc.line);
+      continue;
+    }
+    try {
+      const value = evaluate(`measure ${m.name}`, m.expr);
+      measures[m.name] = value;
+      failed.delete(m.name);
+      scope.set(m.name, value);
+    } catch (err) {
+      const { message, hint } = explain(err, scopeNames(), functionNames, failed);
+      const prefix = `measure ${m.name}: `;
+      diagnostics.push(diagnostic(m.loc, message.startsWith(prefix) ? message : prefix + message, hint));
+      failed.set(m.name, m.loc.line);
+      scope.delete(m.name);
+    }
+  }
+
+  const checks: CheckResult[] = [];
+  for (const c of checkRequests) {
+    try {
+      const value = evaluate('the left side', c.lhs);
+      const limit = evaluate('the right side', c.rhs);
+      const result = evaluateCheck(c, value, limit);
+      if (typeof result === 'string') diagnostics.push(diagnostic(c.loc, `check ${c.text}: ${result}`));
+      else checks.push(result);
+    } catch (err) {
+      const { message, hint } = explain(err, scopeNames(), functionNames, failed);
+      diagnostics.push(diagnostic(c.loc, `check ${c.text}: ${message}`, hint));
+    }
+  }
+  return { measures, checks, diagnostics };
+}
