@@ -21,6 +21,17 @@ export default defineConfig({
           hookTimeout: 30000,
         },
       },
+      {
+        test: {
+          name: 'e2e',
+          include: ['test/e2e/**/*.test.ts'],
+          environment: 'node',
+          globalSetup: ['test/e2e/global-setup.ts'],
+          fileParallelism: false,
+          testTimeout: 30000,
+          hookTimeout: 60000,
+        },
+      },
     ],
   },
 });

@@ -1,0 +1,229 @@
+/**
+ * The nonlinear devices of a circuit, resolved to their parameters at the analysis temperature,
+ * with the state the Newton iteration keeps per device (the junction voltages it linearised at
+ * last time, for step limiting). Stamps each device's companion model: the exact Jacobian plus
+ * the equivalent current I0 − J·v0, so one linear solve gives the next Newton iterate.
+ */
+import type { Bjt, Circuit, Diode, Mosfet } from '../circuit/types';
+import { bjtParams, evalBjt, type BjtEval, type BjtParams } from '../devices/bjt';
+import { diodeParams, evalDiode, type DiodeEval, type DiodeParams } from '../devices/diode';
+import { limitJunctionStep, limitVoltageStep } from '../devices/junction';
+import { evalMos, mosParams, newMosEval, type MosEval, type MosParams } from '../devices/mos';
+import { addEntry, nodeRow, type MnaLayout } from './mna';
+
+/** Largest change of a MOS gate–source (or gate–drain) voltage in one Newton step, in volts. */
+export const MOS_GATE_STEP = 0.5;
+
+export interface BjtInstance {
+  part: Bjt;
+  p: BjtParams;
+  /** Rows of collector, intrinsic base, emitter, external base. */
+  c: number;
+  b: number;
+  e: number;
+  bExt: number;
+  /** Junction voltages (mirrored for pnp) the device was last linearised at. */
+  vbe: number;
+  vbc: number;
+  ev: BjtEval;
+}
+
+export interface MosInstance {
+  part: Mosfet;
+  p: MosParams;
+  d: number;
+  g: number;
+  s: number;
+  b: number;
+  vgs: number;
+  vgd: number;
+  ev: MosEval;
+}
+
+export interface DiodeInstance {
+  part: Diode;
+  p: DiodeParams;
+  a: number;
+  k: number;
+  vd: number;
+  ev: DiodeEval;
+}
+
+const at = (x: Float64Array, i: number) => (i >= 0 ? x[i] : 0);
+
+/** All nonlinear devices of a circuit, ready to stamp. */
+export class DeviceSet {
+  readonly bjts: BjtInstance[] = [];
+  readonly mos: MosInstance[] = [];
+  readonly diodes: DiodeInstance[] = [];
+  /** True until the first stamp after {@link initialGuess}: devices then sit at their guesses. */
+  private useGuess = true;
+
+  constructor(circuit: Circuit, readonly layout: MnaLayout) {
+    const t = circuit.options.temp;
+    const row = (name: string) => nodeRow(layout, name);
+    for (const part of circuit.parts) {
+      if (part.kind === 'npn' || part.kind === 'pnp') {
+        const bExt = row(part.b);
+        const bi = layout.internalBase.get(part.name);
+        this.bjts.push({
+          part, p: bjtParams(part, t), c: row(part.c), b: bi ?? bExt, e: row(part.e), bExt, vbe: 0, vbc: 0,
+          ev: { ic: 0, ib: 0, dIcDvbe: 0, dIcDvbc: 0, dIbDvbe: 0, dIbDvbc: 0 },
+        });
+      } else if (part.kind === 'nmos' || part.kind === 'pmos') {
+        this.mos.push({ part, p: mosParams(part), d: row(part.d), g: row(part.g), s: row(part.s), b: row(part.b), vgs: 0, vgd: 0, ev: newMosEval() });
+      } else if (part.kind === 'diode') {
+        this.diodes.push({ part, p: diodeParams(part, t), a: row(part.a), k: row(part.k), vd: 0, ev: { id: 0, gd: 0 } });
+      }
+    }
+    this.initialGuess();
+  }
+
+  get count(): number {
+    return this.bjts.length + this.mos.length + this.diodes.length;
+  }
+
+  /**
+   * Cold start: junctions at their critical voltage (forward, conducting), collector junctions
+   * at zero, MOS gates at threshold + 0.1 V. The next stamp uses these instead of x.
+   */
+  initialGuess(): void {
+    for (const q of this.bjts) {
+      q.vbe = q.p.vcrit;
+      q.vbc = 0;
+    }
+    for (const m of this.mos) {
+      m.vgs = m.p.polarity * (m.p.vth0 + 0.1);
+      m.vgd = 0;
+    }
+    for (const d of this.diodes) d.vd = d.p.vcrit;
+    this.useGuess = true;
+  }
+
+  /** Warm start: take the device state from a solution vector (e.g. a converged neighbour). */
+  stateFrom(x: Float64Array): void {
+    for (const q of this.bjts) {
+      const s = q.p.polarity;
+      q.vbe = s * (at(x, q.b) - at(x, q.e));
+      q.vbc = s * (at(x, q.b) - at(x, q.c));
+    }
+    for (const m of this.mos) {
+      m.vgs = at(x, m.g) - at(x, m.s);
+      m.vgd = at(x, m.g) - at(x, m.d);
+    }
+    for (const d of this.diodes) d.vd = at(x, d.a) - at(x, d.k);
+    this.useGuess = false;
+  }
+
+  /**
+   * Evaluates every device at x (junction steps limited when `limit`), stamps the companion
+   * models into A and b, and returns true when any voltage was limited (x is then not yet a
+   * solution of the nonlinear system, whatever the update size says).
+   */
+  stamp(x: Float64Array, A: Float64Array, b: Float64Array, limit: boolean): boolean {
+    const n = this.layout.size;
+    let limited = false;
+    const guess = this.useGuess;
+    this.useGuess = false;
+    if (guess) limited = this.count > 0;
+
+    for (const q of this.bjts) {
+      const s = q.p.polarity;
+      let vbe = q.vbe;
+      let vbc = q.vbc;
+      if (!guess) {
+        const vb = at(x, q.b);
+        const rawBe = s * (vb - at(x, q.e));
+        const rawBc = s * (vb - at(x, q.c));
+        vbe = limit ? limitJunctionStep(rawBe, q.vbe, q.p.nvt, q.p.vcrit) : rawBe;
+        vbc = limit ? limitJunctionStep(rawBc, q.vbc, q.p.nvt, q.p.vcrit) : rawBc;
+        if (vbe !== rawBe || vbc !== rawBc) limited = true;
+      }
+      q.vbe = vbe;
+      q.vbc = vbc;
+      const ev = evalBjt(q.p, vbe, vbc, q.ev);
+      // Terminal currents: s·ic into c, s·ib into b', −s·(ic + ib) into e; the Jacobian in
+      // terminal voltages is the mirrored one unchanged (both signs cancel).
+      const icEq = s * (ev.ic - ev.dIcDvbe * vbe - ev.dIcDvbc * vbc);
+      const ibEq = s * (ev.ib - ev.dIbDvbe * vbe - ev.dIbDvbc * vbc);
+      stampTransistorRow(A, b, n, q.c, q.b, q.e, q.c, ev.dIcDvbe, ev.dIcDvbc, icEq, 1);
+      stampTransistorRow(A, b, n, q.b, q.b, q.e, q.c, ev.dIbDvbe, ev.dIbDvbc, ibEq, 1);
+      stampTransistorRow(A, b, n, q.e, q.b, q.e, q.c, ev.dIcDvbe + ev.dIbDvbe, ev.dIcDvbc + ev.dIbDvbc, icEq + ibEq, -1);
+    }
+
+    for (const m of this.mos) {
+      const vs = at(x, m.s);
+      const vbk = at(x, m.b);
+      let vgs = m.vgs;
+      let vgd = m.vgd;
+      if (!guess) {
+        const rawGs = at(x, m.g) - vs;
+        const rawGd = at(x, m.g) - at(x, m.d);
+        vgs = rawGs;
+        vgd = rawGd;
+        if (limit) {
+          // Cap the gate step against whichever terminal acts as the source.
+          const s = m.p.polarity;
+          if (s * (rawGs - rawGd) >= 0) {
+            vgs = limitVoltageStep(rawGs, m.vgs, MOS_GATE_STEP);
+            vgd = rawGd + (vgs - rawGs);
+          } else {
+            vgd = limitVoltageStep(rawGd, m.vgd, MOS_GATE_STEP);
+            vgs = rawGs + (vgd - rawGd);
+          }
+        }
+        if (vgs !== rawGs) limited = true;
+      }
+      m.vgs = vgs;
+      m.vgd = vgd;
+      // Linearisation point in terminal voltages: source and bulk from x, gate and drain implied.
+      const vg0 = vs + vgs;
+      const vd0 = vg0 - vgd;
+      const ev = evalMos(m.p, vg0, vd0, vs, vbk, m.ev);
+      const ieq = ev.id - ev.dIdVg * vg0 - ev.dIdVd * vd0 - ev.dIdVs * vs - ev.dIdVb * vbk;
+      for (const [r, sign] of [[m.d, 1], [m.s, -1]] as const) {
+        if (r < 0) continue;
+        addEntry(A, n, r, m.g, sign * ev.dIdVg);
+        addEntry(A, n, r, m.d, sign * ev.dIdVd);
+        addEntry(A, n, r, m.s, sign * ev.dIdVs);
+        addEntry(A, n, r, m.b, sign * ev.dIdVb);
+        b[r] -= sign * ieq;
+      }
+    }
+
+    for (const d of this.diodes) {
+      let vd = d.vd;
+      if (!guess) {
+        const raw = at(x, d.a) - at(x, d.k);
+        vd = limit ? limitJunctionStep(raw, d.vd, d.p.nvt, d.p.vcrit) : raw;
+        if (vd !== raw) limited = true;
+      }
+      d.vd = vd;
+      const ev = evalDiode(d.p, vd, d.ev);
+      const ieq = ev.id - ev.gd * vd;
+      addEntry(A, n, d.a, d.a, ev.gd);
+      addEntry(A, n, d.a, d.k, -ev.gd);
+      addEntry(A, n, d.k, d.a, -ev.gd);
+      addEntry(A, n, d.k, d.k, ev.gd);
+      if (d.a >= 0) b[d.a] -= ieq;
+      if (d.k >= 0) b[d.k] += ieq;
+    }
+    return limited;
+  }
+}
+
+/**
+ * Stamps sign·I into row r, where I = ieq + gBe·(v_b − v_e) + gBc·(v_b − v_c): the current into
+ * one transistor terminal linearised in its two junction voltages.
+ */
+function stampTransistorRow(
+  A: Float64Array, b: Float64Array, n: number,
+  r: number, rb: number, re: number, rc: number,
+  gBe: number, gBc: number, ieq: number, sign: 1 | -1,
+): void {
+  if (r < 0) return;
+  addEntry(A, n, r, rb, sign * (gBe + gBc));
+  addEntry(A, n, r, re, -sign * gBe);
+  addEntry(A, n, r, rc, -sign * gBc);
+  b[r] -= sign * ieq;
+}

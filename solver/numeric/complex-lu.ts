@@ -1,0 +1,122 @@
+/**
+ * Dense complex LU factorisation with partial pivoting on split storage (real and imaginary
+ * parts in two row-major Float64Arrays). This is the AC hot path: one factorisation per
+ * frequency, one back-substitution per excitation, no allocation.
+ *
+ * Split storage keeps every inner loop a pair of contiguous streams with no object creation.
+ */
+import { SINGULAR_PIVOT } from './dense-lu';
+
+/**
+ * Factors the n×n complex matrix (re, im) in place. Pivot choice by |z|² (the largest modulus).
+ * Returns -1 on success, or the step at which the remaining column is zero.
+ */
+export function complexLuFactor(re: Float64Array, im: Float64Array, n: number, pivots: Int32Array): number {
+  for (let k = 0; k < n; k++) {
+    let p = k;
+    let best = re[k * n + k] * re[k * n + k] + im[k * n + k] * im[k * n + k];
+    for (let i = k + 1; i < n; i++) {
+      const r = re[i * n + k];
+      const m = im[i * n + k];
+      const mag2 = r * r + m * m;
+      if (mag2 > best) {
+        best = mag2;
+        p = i;
+      }
+    }
+    pivots[k] = p;
+    if (!(Math.sqrt(best) >= SINGULAR_PIVOT)) return k; // also catches NaN
+    const rk = k * n;
+    if (p !== k) {
+      const rp = p * n;
+      for (let j = 0; j < n; j++) {
+        let t = re[rk + j];
+        re[rk + j] = re[rp + j];
+        re[rp + j] = t;
+        t = im[rk + j];
+        im[rk + j] = im[rp + j];
+        im[rp + j] = t;
+      }
+    }
+    // 1/pivot, scaled by the larger part so |z|² neither underflows nor overflows.
+    const s = Math.max(Math.abs(re[rk + k]), Math.abs(im[rk + k]));
+    const pr = re[rk + k] / s;
+    const pi = im[rk + k] / s;
+    const d = (pr * pr + pi * pi) * s;
+    const invR = pr / d;
+    const invI = -pi / d;
+    for (let i = k + 1; i < n; i++) {
+      const ri = i * n;
+      const ar = re[ri + k];
+      const ai = im[ri + k];
+      if (ar === 0 && ai === 0) continue;
+      const lr = ar * invR - ai * invI;
+      const li = ar * invI + ai * invR;
+      re[ri + k] = lr;
+      im[ri + k] = li;
+      for (let j = k + 1; j < n; j++) {
+        const ur = re[rk + j];
+        const ui = im[rk + j];
+        re[ri + j] -= lr * ur - li * ui;
+        im[ri + j] -= lr * ui + li * ur;
+      }
+    }
+  }
+  return -1;
+}
+
+/** Solves in place in (bRe, bIm) with the output of {@link complexLuFactor}. */
+export function complexLuSolve(
+  re: Float64Array,
+  im: Float64Array,
+  n: number,
+  pivots: Int32Array,
+  bRe: Float64Array,
+  bIm: Float64Array,
+): void {
+  for (let k = 0; k < n; k++) {
+    const p = pivots[k];
+    if (p !== k) {
+      let t = bRe[k];
+      bRe[k] = bRe[p];
+      bRe[p] = t;
+      t = bIm[k];
+      bIm[k] = bIm[p];
+      bIm[p] = t;
+    }
+  }
+  for (let i = 1; i < n; i++) {
+    const ri = i * n;
+    let sr = bRe[i];
+    let si = bIm[i];
+    for (let j = 0; j < i; j++) {
+      const lr = re[ri + j];
+      const li = im[ri + j];
+      const xr = bRe[j];
+      const xi = bIm[j];
+      sr -= lr * xr - li * xi;
+      si -= lr * xi + li * xr;
+    }
+    bRe[i] = sr;
+    bIm[i] = si;
+  }
+  for (let i = n - 1; i >= 0; i--) {
+    const ri = i * n;
+    let sr = bRe[i];
+    let si = bIm[i];
+    for (let j = i + 1; j < n; j++) {
+      const ur = re[ri + j];
+      const ui = im[ri + j];
+      const xr = bRe[j];
+      const xi = bIm[j];
+      sr -= ur * xr - ui * xi;
+      si -= ur * xi + ui * xr;
+    }
+    const s = Math.max(Math.abs(re[ri + i]), Math.abs(im[ri + i]));
+    const dr = re[ri + i] / s;
+    const di = im[ri + i] / s;
+    const d = (dr * dr + di * di) * s;
+    bRe[i] = (sr * dr + si * di) / d;
+    bIm[i] = (si * dr - sr * di) / d;
+  }
+}
