@@ -69,6 +69,11 @@ export interface AcSolution {
   v(node: string): Phasor;
   /** Branch current phasor of a voltage source / inductor / vcvs, p→n through it. */
   branch(name: string): Phasor;
+  /**
+   * True when the system was singular at this frequency (no finite solution): every phasor is
+   * then reported as 0 and the caller should report the point as an error. (Engine extension.)
+   */
+  singular?: boolean;
 }
 
 /**

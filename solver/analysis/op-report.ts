@@ -10,12 +10,13 @@
  *   base, ie into the emitter, vbe = v(e) − v(b), vce = v(e) − v(c).
  * - MOS: nmos id into the drain, vgs = v(g) − v(s), vds = v(d) − v(s); pmos mirrored (id out of
  *   the drain, vgs = v(s) − v(g), vds = v(s) − v(d)); vov and vth in the same (positive) sense.
- * - `ro` (and `rpi`) is capped at 1e30 Ω when the model gives no finite value (va = ∞).
+ * - `ro` is reported as 1e30 Ω when va = ∞ (JSON has no Infinity); `rpi` and `ro` are also capped
+ *   at 1e30 Ω wherever the slope is zero or negative (cut-off).
  */
 import type { Diagnostic, SourceLoc } from '../circuit/diagnostic';
 import type { Circuit } from '../circuit/types';
 import type { BjtOp, DeviceOp, DiodeOp, MosOp, OpResult } from '../result';
-import { bjtCpi, bjtSmallSignal, evalBjt, finiteResistance } from '../devices/bjt';
+import { bjtCpi, bjtSmallSignal, evalBjt, finiteResistance, RESISTANCE_CAP } from '../devices/bjt';
 import { evalDiode } from '../devices/diode';
 import { evalMos } from '../devices/mos';
 import { conductanceOf, nodeRow, type MnaLayout } from './mna';
@@ -114,7 +115,8 @@ function bjtOp(q: BjtInstance, x: Float64Array, warnings: Diagnostic[]): BjtOp {
     vce,
     gm: ss.gm,
     rpi: finiteResistance(ss.gpi),
-    ro: finiteResistance(ss.go),
+    // With va = ∞ the model has no output resistance: report the cap, not the reverse junction's 1/g.
+    ro: q.p.invVa === 0 ? RESISTANCE_CAP : finiteResistance(ss.go),
     cpi: bjtCpi(q.p, ss.gm),
     cmu: q.p.cjc,
     rb: q.p.rb,

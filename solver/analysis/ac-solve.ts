@@ -1,0 +1,98 @@
+/**
+ * The AC solver: (G + j·2πf·C)·x = b at one frequency, one complex LU per frequency and one
+ * back-substitution per excitation, all in storage allocated once per system.
+ */
+import { GROUND } from '../circuit/types';
+import { complexLuFactor, complexLuSolve } from '../numeric/complex-lu';
+import type { AcSolution, AcSolver, Excitation, LinearSystem, Phasor } from './engine-api';
+
+export { logSweep, unwrapPhaseDeg } from './frequency';
+
+const ZERO: Phasor = Object.freeze({ re: 0, im: 0 }) as Phasor;
+
+/** Creates a solver over `system`; the system's matrices are read, never modified. */
+export function createAcSolver(system: LinearSystem): AcSolver {
+  const n = system.size;
+  const re = new Float64Array(n * n);
+  const im = new Float64Array(n * n);
+  const pivots = new Int32Array(n);
+  // C is sparse (a few entries per capacitor): keep its nonzeros so forming j·ω·C costs O(nnz).
+  const cIndex: number[] = [];
+  for (let i = 0; i < n * n; i++) if (system.C[i] !== 0) cIndex.push(i);
+  const cAt = Int32Array.from(cIndex);
+  const cVal = Float64Array.from(cIndex, (i) => system.C[i]);
+
+  return {
+    solve(freqHz: number, excitations: Excitation[]): AcSolution[] {
+      const omega = Number.isFinite(freqHz) ? 2 * Math.PI * freqHz : 0;
+      re.set(system.G);
+      im.fill(0);
+      for (let k = 0; k < cAt.length; k++) im[cAt[k]] = omega * cVal[k];
+      const singular = complexLuFactor(re, im, n, pivots) >= 0;
+      const out: AcSolution[] = [];
+      for (const ex of excitations) {
+        const xr = new Float64Array(n);
+        const xi = new Float64Array(n);
+        if (!singular) {
+          fillExcitation(system, ex, xr, xi);
+          complexLuSolve(re, im, n, pivots, xr, xi);
+        }
+        out.push(makeSolution(system, xr, xi, singular));
+      }
+      return out;
+    },
+  };
+}
+
+/** Writes an excitation's right-hand side into (br, bi). */
+export function fillExcitation(system: LinearSystem, ex: Excitation, br: Float64Array, bi: Float64Array): void {
+  if (ex.sources) {
+    for (const [name, ph] of ex.sources) {
+      const s = system.sources.get(name);
+      if (!s || !Number.isFinite(ph.re) || !Number.isFinite(ph.im)) continue;
+      if (s.kind === 'vsrc') {
+        br[s.row] += ph.re;
+        bi[s.row] += ph.im;
+      } else {
+        // The source's current leaves `from` and enters `to`.
+        if (s.from >= 0) {
+          br[s.from] -= ph.re;
+          bi[s.from] -= ph.im;
+        }
+        if (s.to >= 0) {
+          br[s.to] += ph.re;
+          bi[s.to] += ph.im;
+        }
+      }
+    }
+  }
+  if (ex.injections) {
+    for (const [node, ph] of ex.injections) {
+      const r = system.nodeIndex.get(node);
+      if (r === undefined || !Number.isFinite(ph.re) || !Number.isFinite(ph.im)) continue;
+      br[r] += ph.re;
+      bi[r] += ph.im;
+    }
+  }
+}
+
+function makeSolution(system: LinearSystem, xr: Float64Array, xi: Float64Array, singular: boolean): AcSolution {
+  return {
+    singular,
+    v(node: string): Phasor {
+      if (node === GROUND) return ZERO;
+      const r = system.nodeIndex.get(node);
+      return r === undefined ? ZERO : { re: xr[r], im: xi[r] };
+    },
+    branch(name: string): Phasor {
+      const r = system.branchIndex.get(name);
+      return r === undefined ? ZERO : { re: xr[r], im: xi[r] };
+    },
+  };
+}
+
+/** Solves one excitation at every frequency of `freqs` (a convenience over {@link createAcSolver}). */
+export function acSweep(system: LinearSystem, freqs: readonly number[], excitation: Excitation): AcSolution[] {
+  const solver = createAcSolver(system);
+  return freqs.map((f) => solver.solve(f, [excitation])[0]);
+}
