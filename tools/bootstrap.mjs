@@ -1,13 +1,17 @@
 #!/usr/bin/env node
 /**
- * First step of `npm start`, `npm run dev` and `npm test`: make sure dependencies are installed.
+ * Launcher of `npm start`, `npm run dev` and `npm test`: `node tools/bootstrap.mjs SCRIPT.ts [ARGS]`.
+ * Makes sure dependencies are installed, then runs the TypeScript script with tsx in a child
+ * process that it watches over: signals are passed on, and when npm (our parent) goes away
+ * without telling us — `kill <npm pid>` kills npm's shell, not us — the child is stopped too,
+ * so no server or database is left behind.
  * Plain JavaScript with no dependencies, because it runs before node_modules exists.
  * Runs `npm ci` when node_modules is missing or was installed from another package-lock.json
  * (a hash of the lock file is kept in node_modules after each install).
  */
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { createHash } from 'node:crypto';
-import { spawnSync } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { dirname, join } from 'node:path';
 
@@ -31,4 +35,20 @@ if (!installed || !current) {
     process.exit(r.status ?? 1);
   }
   writeFileSync(stamp, lockHash + '\n');
+}
+
+const [script, ...args] = process.argv.slice(2);
+if (script) {
+  const child = spawn(process.execPath, ['--import', 'tsx', script, ...args], { cwd: root, stdio: 'inherit' });
+  for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP']) {
+    process.on(signal, () => child.kill(signal));
+  }
+  const parent = process.ppid;
+  const watch = setInterval(() => {
+    if (process.ppid !== parent) child.kill('SIGTERM');
+  }, 500);
+  child.on('exit', (code, signal) => {
+    clearInterval(watch);
+    process.exit(code ?? (signal ? 1 : 0));
+  });
 }

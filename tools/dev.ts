@@ -5,6 +5,7 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { join } from 'node:path';
 import { prepareDatabase } from './database';
+import { onStopRequest } from './lifecycle';
 import { ROOT, startPostgres } from './postgres';
 
 const pg = startPostgres();
@@ -26,6 +27,5 @@ function stop(): void {
     process.exit(0);
   }, 1500);
 }
-process.on('SIGINT', stop);
-process.on('SIGTERM', stop);
+onStopRequest(stop);
 for (const c of children) c.on('exit', stop);

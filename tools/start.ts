@@ -5,6 +5,7 @@
 import { buildApp, APP_DIST } from './build-app';
 import { prepareDatabase } from './database';
 import { startPostgres } from './postgres';
+import { onStopRequest } from './lifecycle';
 import { serveProduct } from './serve';
 
 const started = Date.now();
@@ -23,9 +24,7 @@ async function shutdown(code: number): Promise<void> {
   pg.stop();
   process.exit(code);
 }
-process.on('SIGINT', () => void shutdown(0));
-process.on('SIGTERM', () => void shutdown(0));
-process.on('SIGHUP', () => void shutdown(0));
+onStopRequest(() => void shutdown(0));
 
 try {
   const databaseUrl = await prepareDatabase(pg, process.env.NODEWRIGHT_DB ?? 'nodewright', { seed: true });
