@@ -3,7 +3,7 @@
  * `npm start` does not rebuild. The solver is an input too: the bench's worker bundles it.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, rmdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { ROOT } from './postgres';
 
@@ -27,8 +27,35 @@ export function appIsStale(): boolean {
   return INPUTS.some((p) => newestMtime(join(ROOT, p)) > built);
 }
 
+const LOCK = join(ROOT, 'dist', '.build-lock');
+
+/** Holds a folder lock so two test runs never build into dist/ at once (stale after 5 minutes). */
+function withBuildLock<T>(fn: () => T): T {
+  mkdirSync(join(ROOT, 'dist'), { recursive: true });
+  const deadline = Date.now() + 10 * 60_000;
+  for (;;) {
+    try {
+      mkdirSync(LOCK);
+      break;
+    } catch {
+      if (existsSync(LOCK) && Date.now() - statSync(LOCK).mtimeMs > 5 * 60_000) rmdirSync(LOCK);
+      if (Date.now() > deadline) throw new Error(`Another build holds ${LOCK}; remove it if no build runs.`);
+      spawnSync('sleep', ['1']);
+    }
+  }
+  try {
+    return fn();
+  } finally {
+    rmdirSync(LOCK);
+  }
+}
+
 /** Runs `ng build` (production) when stale; throws when the build fails. */
 export function buildApp(options: { force?: boolean; quiet?: boolean } = {}): boolean {
+  return withBuildLock(() => buildAppUnlocked(options));
+}
+
+function buildAppUnlocked(options: { force?: boolean; quiet?: boolean }): boolean {
   if (!options.force && !appIsStale()) return false;
   console.log('Building the app (ng build)…');
   const r = spawnSync(join(ROOT, 'node_modules', '.bin', 'ng'), ['build'], {
