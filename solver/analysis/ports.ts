@@ -19,6 +19,7 @@ import type { AcSolution, AcSolver, Excitation, LinearSystem, Phasor } from './e
 import { cadd, cscale, csub, cx, decibels, magnitude, toFigure } from '../measure/complex';
 import { curveFromPhasors } from '../measure/curve';
 import { didYouMean } from '../measure/measure-error';
+import { isSingular } from '../measure/impedance';
 
 /** Largest CMRR reported (300 dB): stands for "unbounded" when acm is exactly zero. */
 export const CMRR_CAP = 1e15;
@@ -109,7 +110,11 @@ export function analyzePorts(system: LinearSystem, solver: AcSolver, req: PortsR
     return { diagnostics: [error('ports-frequency', req.loc, 'ports: the `at` frequency must be 0 Hz or more.')] };
   }
   const drive = excitations(req);
-  const { adm, acm } = gains(req, solver.solve(req.atHz, drive));
+  const atSolutions = solver.solve(req.atHz, drive);
+  if (atSolutions.some(isSingular)) {
+    return { diagnostics: [error('ports-singular', req.loc, `ports: the small-signal circuit is singular at ${req.atHz} Hz, so the gains are undefined.`, 'look for a loop of voltage sources or a node held only by capacitors')] };
+  }
+  const { adm, acm } = gains(req, atSolutions);
   const { cmrr, capped, silent } = cmrrOf(adm, acm);
   if (silent) {
     diagnostics.push(warning('ports-no-response', req.loc, `ports: the output does not respond to either input at ${req.atHz} Hz (adm = acm = 0).`, 'check that the output nodes connect to the stage the sources drive'));

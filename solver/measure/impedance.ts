@@ -34,6 +34,7 @@ export function inputImpedance(system: LinearSystem, solver: AcSolver, source: u
     throw new MeasureError(`zin(${source}): there is no independent source \`${source}\`.`, didYouMean(source, system.sources.keys()) ?? 'zin() takes a vsrc or isrc name');
   }
   const [solution] = solver.solve(freqHz, [{ sources: new Map([[source, cx(1)]]) }]);
+  if (isSingular(solution)) throw new MeasureError(`zin(${source}): the small-signal circuit is singular at ${freqHz} Hz.`, 'look for a loop of voltage sources or an inductor across a source');
   let z: Phasor;
   if (entry.kind === 'vsrc') {
     const delivered = solution.branch(source);
@@ -60,11 +61,17 @@ export function outputImpedance(system: LinearSystem, solver: AcSolver, node: un
     throw new MeasureError(`zout(${node}): there is no node \`${node}\`.`, didYouMean(node, system.nodeIndex.keys()));
   }
   const [solution] = solver.solve(freqHz, [{ injections: new Map([[node, cx(1)]]) }]);
+  if (isSingular(solution)) throw new MeasureError(`zout(${node}): the small-signal circuit is singular at ${freqHz} Hz.`);
   const z = solution.v(node);
   if (magnitude(z) > OPEN_CIRCUIT_OHMS) {
     throw new MeasureError(`zout(${node}): the node is held only by leakage (above 1e15 Ω); nothing drives it.`);
   }
   return z;
+}
+
+/** The engine flags a solve whose matrix could not be factored (an extra member beyond the contract). */
+export function isSingular(solution: object): boolean {
+  return (solution as { singular?: boolean }).singular === true;
 }
 
 /** Node voltage of the solution by MNA index (the engine's source map holds indices, not names). */
