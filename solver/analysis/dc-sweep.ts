@@ -1,0 +1,61 @@
+/**
+ * DC transfer sweep (`analyze transfer`): one independent source's DC value stepped over a list
+ * of values, each point warm-started from the previous converged point; a point that fails warm
+ * falls back to the full operating-point ladder (cold Newton, gmin stepping, source stepping).
+ */
+import type { Diagnostic } from '../circuit/diagnostic';
+import type { Circuit, CurrentSource, Part, VoltageSource } from '../circuit/types';
+import type { DcSweepResult, OperatingPoint } from './engine-api';
+import { buildLayout } from './mna';
+import { NewtonWorkspace } from './newton';
+import { isOpFailure, solveWithWorkspace } from './operating-point';
+
+/**
+ * Sweeps `source` (a vsrc or isrc name) over `values`. `start` (an operating point of the same
+ * circuit) warm-starts the first point. Never throws; failed points are left out of `x`/`points`
+ * and reported in `errors`.
+ */
+export function dcSweep(circuit: Circuit, source: string, values: readonly number[], start?: OperatingPoint): DcSweepResult {
+  const result: DcSweepResult = { x: [], points: [], errors: [] };
+  const index = circuit.parts.findIndex((p) => p.name === source);
+  const original = circuit.parts[index];
+  if (!original || (original.kind !== 'vsrc' && original.kind !== 'isrc')) {
+    result.errors.push({
+      severity: 'error', code: 'transfer-source', line: original?.loc.line ?? 1, col: original?.loc.col ?? 1,
+      message: `${source} is not an independent voltage or current source, so it cannot be swept.`,
+      hint: 'name a vsrc or isrc',
+    });
+    return result;
+  }
+  // A private copy of the swept source, mutated per point; every other part is shared.
+  const swept: VoltageSource | CurrentSource = { ...original };
+  const parts: Part[] = circuit.parts.slice();
+  parts[index] = swept;
+  const sweptCircuit: Circuit = { ...circuit, parts };
+  const ws = new NewtonWorkspace(sweptCircuit, buildLayout(sweptCircuit));
+  let previous: Float64Array | undefined = start && start.x.length === ws.n ? start.x : undefined;
+  for (const value of values) {
+    if (!Number.isFinite(value)) {
+      result.errors.push(pointError(original.loc, source, value, 'the value is not finite'));
+      continue;
+    }
+    swept.dc = value;
+    const op = solveWithWorkspace(ws, previous ? { x: previous } : undefined);
+    if (isOpFailure(op)) {
+      const why = op.errors[0]?.message ?? 'no convergence';
+      result.errors.push(pointError(original.loc, source, value, why));
+      continue;
+    }
+    previous = op.x;
+    result.x.push(value);
+    result.points.push(op.report);
+  }
+  return result;
+}
+
+function pointError(loc: { line: number; col: number }, source: string, value: number, why: string): Diagnostic {
+  return {
+    severity: 'error', code: 'transfer-point', line: loc.line, col: loc.col,
+    message: `The transfer point ${source} = ${Number.isFinite(value) ? value : String(value)} was not solved: ${why}`,
+  };
+}
