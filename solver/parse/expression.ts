@@ -194,6 +194,8 @@ export function evaluateExpression(
     if (Number.isFinite(direct)) return { ok: true, value: Object.is(direct, -0) ? 0 : direct };
   }
   const problems: ExpressionProblem[] = [];
+  // A parameter that already failed is NaN in the scope: stay silent, its own error says it all.
+  if (rw.identifiers.some((id) => !id.isCall && Number.isNaN(scope.get(id.name)))) return { ok: false, problems: [] };
   for (const id of rw.identifiers) {
     if (id.isCall) {
       if (!PARAM_FUNCTIONS.has(id.name)) {
