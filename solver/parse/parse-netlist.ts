@@ -18,10 +18,16 @@ export interface ParseOptions {
    * (a file containing one `block NAME(...) ... end` whose NAME is the last path segment, and any
    * `model`s / nested blocks it needs). Returns undefined when unknown.
    */
-  resolveUse?: (path: string, version: number) => string | undefined;
+  resolveUse?: (path: string, version: number) => string | undefined | UseLookup;
   /** Top-level parameter values that replace the written ones (how `analyze vary` re-runs). */
   paramOverrides?: Record<string, number>;
 }
+
+/**
+ * A resolver may also answer with a reason: `{ ok: false, message, hint }` is reported at the
+ * `use` line as written (e.g. "The library has no version 4 of `mirrors/wilson_npn`.").
+ */
+export type UseLookup = { ok: true; text: string } | { ok: false; message: string; hint?: string };
 
 export interface NetlistSymbols {
   models: string[];
@@ -106,7 +112,14 @@ class UseResolver {
       return undefined;
     }
     try {
-      text = this.resolve(path, version);
+      const answer = this.resolve(path, version);
+      if (typeof answer === 'string') text = answer;
+      else if (answer && typeof answer === 'object' && answer.ok === true && typeof answer.text === 'string') text = answer.text;
+      else if (answer && typeof answer === 'object' && answer.ok === false) {
+        this.bag.error('unknown-use', loc, prefix + String(answer.message), answer.hint);
+        this.cache.set(key, null);
+        return undefined;
+      }
     } catch {
       text = undefined;
     }

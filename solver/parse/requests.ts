@@ -229,7 +229,7 @@ function resolveExpression(ctx: RequestContext, value: ValueText, measures: Set<
       const bjt = part.kind === 'npn' || part.kind === 'pnp';
       const mos = part.kind === 'nmos' || part.kind === 'pmos';
       const wrong =
-        (BJT_FUNCTIONS.has(fn) && !bjt) || (MOS_FUNCTIONS.has(fn) && !mos) || (fn === 'gm' && !bjt && !mos);
+        (BJT_FUNCTIONS.has(fn) && !bjt) || (MOS_FUNCTIONS.has(fn) && !mos && !(fn === 'id' && part.kind === 'diode')) || (fn === 'gm' && !bjt && !mos);
       if (wrong) {
         const needs = BJT_FUNCTIONS.has(fn) ? 'a bipolar transistor' : MOS_FUNCTIONS.has(fn) ? 'a MOS transistor' : 'a transistor';
         ctx.error('wrong-kind', loc, `\`${fn}\` needs ${needs}; \`${name}\` is a ${part.kind}.`);
@@ -291,7 +291,7 @@ function resolveCheck(ctx: RequestContext, s: CheckStmt, measures: Set<string>, 
   const rhs = resolveExpression(ctx, s.rhs, measures, hasPorts);
   let tol: number | undefined;
   let tolRelative = false;
-  if (s.tol && s.op === '=') {
+  if (s.tol) {
     tolRelative = s.tol.text.trimEnd().endsWith('%');
     tol = ctx.number(s.tol, undefined, 'the tolerance', 'nonnegative');
     if (Number.isNaN(tol)) return undefined;

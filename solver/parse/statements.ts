@@ -240,6 +240,5 @@ function parseCheck(ctx: LineContext, line: LogicalLine): CheckStmt | undefined 
     ctx.bag.error('missing-value', line.loc(where, where + 1), `The check is missing its ${!lhs ? 'left side' : !rhs ? 'right side' : 'tolerance'}.`);
     return undefined;
   }
-  if (tolAt >= 0 && op !== '=') ctx.bag.warning('syntax', line.loc(tolAt, tolAt + tolLen), `A tolerance only applies to \`=\`; it is ignored with \`${op}\`.`);
   return { kind: 'check', text: text.slice(bodyStart).trim().replace(/\s+/g, ' '), lhs, op, rhs, tol, loc: line.loc(kw.start, kw.end) };
 }
