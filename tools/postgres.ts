@@ -112,7 +112,12 @@ function ensureCluster(bin: string, data: string): void {
 }
 
 function isRunning(bin: string, data: string): boolean {
-  return run(bin, 'pg_ctl', ['status', '-D', data], { allowFail: true }).status === 0;
+  if (run(bin, 'pg_ctl', ['status', '-D', data], { allowFail: true }).status !== 0) return false;
+  // A killed server whose parent never reaps it stays a zombie that pg_ctl counts as alive.
+  const pidFile = join(data, 'postmaster.pid');
+  const pid = existsSync(pidFile) ? readFileSync(pidFile, 'utf8').split('\n')[0].trim() : '';
+  const stat = pid && existsSync(`/proc/${pid}/stat`) ? readFileSync(`/proc/${pid}/stat`, 'utf8') : '';
+  return !/^\d+ \(.*\) Z /.test(stat);
 }
 
 /** Starts (or reuses) the project's cluster and makes sure `databases` exist. */
@@ -123,7 +128,9 @@ export function startPostgres(): PostgresHandle {
   let startedHere = false;
   if (!isRunning(bin, data)) {
     // pg_ctl status said no server: a leftover pid file (killed machine) would block the start.
+    // The socket lock in the data folder names the same dead pid.
     rmSync(join(data, 'postmaster.pid'), { force: true });
+    for (const f of readdirSync(data)) if (/^\.s\.PGSQL\.\d+(\.lock)?$/.test(f)) rmSync(join(data, f), { force: true });
     const log = join(data, 'server.log');
     run(bin, 'pg_ctl', ['start', '-w', '-t', '30', '-D', data, '-l', log, '-o', `-p ${PG_PORT}`]);
     startedHere = true;
