@@ -22,7 +22,7 @@ function op(c: Circuit): OperatingPoint {
 const bjt = (o: OperatingPoint, name: string) => o.report.devices[name] as BjtOp;
 
 describe('diode-connected bipolar', () => {
-  it('has VBE = VT·ln(IC/IS + 1) with VT = kT/q, exact SI k and q (Sedra & Smith, 7th ed., eq. 6.2)', () => {
+  it('has VBE = VT·ln(IC/IS + 1) with VT = kT/q, exact SI k and q (Sedra & Smith, 7th ed., from memory)', () => {
     for (const [iref, temp] of [[1e-6, 27], [1e-3, 27], [1e-4, 85]] as const) {
       const c = circuitOf(
         [
@@ -45,7 +45,7 @@ describe('diode-connected bipolar', () => {
     expect(ELEMENTARY_CHARGE).toBe(1.602176634e-19);
   });
 
-  it('reports the textbook hybrid-pi values gm = IC/VT, rπ = β/gm (Sedra & Smith, 7th ed., §7.2)', () => {
+  it('reports the textbook hybrid-pi values gm = IC/VT, rπ = β/gm (Sedra & Smith, 7th ed., §7.2, from memory)', () => {
     const c = circuitOf(
       [
         { kind: 'vsrc', name: 'vcc', p: 'vcc', n: 'gnd', dc: 5 },
@@ -59,12 +59,12 @@ describe('diode-connected bipolar', () => {
     expect(rel(q.gm, q.ic / vt)).toBeLessThan(1e-9);
     expect(rel(q.rpi, 100 / q.gm)).toBeLessThan(1e-9);
     expect(q.ro).toBe(1e30);
-    // Cπ = Cje + gm·τF, Cμ = Cjc (Sedra & Smith, 7th ed., §10.2).
+    // Cπ = Cje + gm·τF, Cμ = Cjc (Sedra & Smith, 7th ed., §10.2, from memory).
     expect(rel(q.cpi, 1e-12 + q.gm * 1e-10)).toBeLessThan(1e-12);
     expect(q.cmu).toBe(0.5e-12);
   });
 
-  it('gives ro = (VA + VCE)/IC with a finite Early voltage (Sedra & Smith, 7th ed., eq. 6.27 and §7.2)', () => {
+  it('gives ro = (VA + VCE)/IC with a finite Early voltage (Sedra & Smith, 7th ed., §6.2 and §7.2, from memory)', () => {
     const c = circuitOf(
       [
         { kind: 'vsrc', name: 'vcc', p: 'vcc', n: 'gnd', dc: 5 },
@@ -84,7 +84,7 @@ function thermal(): number {
 }
 
 describe('two-transistor current mirror', () => {
-  it('copies IREF with ratio 1/(1 + 2/β) (Sedra & Smith, Microelectronic Circuits, 7th ed., §8.2.2, eq. 8.23)', () => {
+  it('copies IREF with ratio 1/(1 + 2/β) (Sedra & Smith, Microelectronic Circuits, 7th ed., §8.2.2, from memory)', () => {
     for (const beta of [20, 100, 300]) {
       for (const kind of ['npn', 'pnp'] as const) {
         const m = bjtModel({ beta });
@@ -139,13 +139,13 @@ describe('resistor-tail differential pair', () => {
   const half = (a: number, b: number) => ({ sources: new Map([['va', { re: a, im: 0 }], ['vb', { re: b, im: 0 }]]) });
   const [dm, cm] = solver.solve(0, [half(0.5, -0.5), half(1, 1)]);
 
-  it('has adm = −gm·RC exactly per half-circuit (Gray, Hurst, Lewis & Meyer, Analysis and Design of Analog ICs, 5th ed., §3.5.3)', () => {
+  it('has adm = −gm·RC exactly per half-circuit (Gray, Hurst, Lewis & Meyer, Analysis and Design of Analog ICs, 5th ed., §3.5, from memory)', () => {
     const adm = dm.v('outa').re - dm.v('outb').re;
     expect(rel(adm, -q1.gm * rc)).toBeLessThan(1e-9);
     expect(Math.abs(dm.v('tail').re)).toBeLessThan(1e-12); // the tail is an AC ground for the differential mode
   });
 
-  it('has acm = −gm·RC / (1 + 2·RE·(gm + 1/rπ)) (Gray, Hurst, Lewis & Meyer, 5th ed., §3.5.5, common-mode half-circuit)', () => {
+  it('has acm = −gm·RC / (1 + 2·RE·(gm + 1/rπ)) (Gray, Hurst, Lewis & Meyer, 5th ed., §3.5, common-mode half-circuit, from memory)', () => {
     const acm = (cm.v('outa').re + cm.v('outb').re) / 2;
     expect(rel(acm, (-q1.gm * rc) / (1 + 2 * re * (q1.gm + 1 / q1.rpi)))).toBeLessThan(1e-9);
   });
@@ -159,7 +159,7 @@ describe('resistor-tail differential pair', () => {
 });
 
 describe('differential pair DC transfer', () => {
-  it('splits the tail as ΔIC = α·IEE·tanh(vid/2VT) (Gray, Hurst, Lewis & Meyer, 5th ed., §3.5.1, eq. 3.158)', () => {
+  it('splits the tail as ΔIC = α·IEE·tanh(vid/2VT) (Gray, Hurst, Lewis & Meyer, 5th ed., §3.5.1, from memory)', () => {
     const c = diffPair({ rc: 2000, re: 0, tailSource: true });
     const values = Array.from({ length: 21 }, (_, k) => -0.2 + k * 0.02);
     const sweep = dcSweep(c, 'va', values);
@@ -177,7 +177,7 @@ describe('differential pair DC transfer', () => {
 });
 
 describe('base resistance', () => {
-  it('adds rb in series with the base: zin = rb + rπ at DC (Sedra & Smith, 7th ed., §10.2, hybrid-pi with rx)', () => {
+  it('adds rb in series with the base: zin = rb + rπ at DC (Sedra & Smith, 7th ed., §10.2, hybrid-pi with rx, from memory)', () => {
     const c = circuitOf(
       [
         { kind: 'vsrc', name: 'vcc', p: 'vcc', n: 'gnd', dc: 5 },

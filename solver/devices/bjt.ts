@@ -12,7 +12,7 @@
  * The small-signal parameters are the exact derivatives of this model at the operating point.
  */
 import type { Bjt } from '../circuit/types';
-import { criticalVoltage, expSlope, expValue } from './junction';
+import { criticalVoltage, expm1Value, expSlope } from './junction';
 import { saturationCurrentAt, thermalVoltage } from './temperature';
 
 /** Reported output resistance when the model has none (va = ∞ or a zero slope): JSON must stay finite. */
@@ -88,15 +88,16 @@ export function bjtParams(part: Bjt, tempC: number): BjtParams {
 /** Evaluates currents and their exact derivatives at (vbe, vbc), npn sense. */
 export function evalBjt(p: BjtParams, vbe: number, vbc: number, out: BjtEval): BjtEval {
   const { is, nvt } = p;
-  const e1 = expValue(vbe / nvt);
-  const e2 = expValue(vbc / nvt);
+  // exp − 1 forms throughout: exact near 0 V, and e1 − e2 = (e1 − 1) − (e2 − 1).
+  const e1 = expm1Value(vbe / nvt);
+  const e2 = expm1Value(vbc / nvt);
   const d1 = (is * expSlope(vbe / nvt)) / nvt;
   const d2 = (is * expSlope(vbc / nvt)) / nvt;
   const early = 1 + (vbe - vbc) * p.invVa;
   const transport = is * (e1 - e2);
   const isR = is / p.betaR;
-  out.ic = transport * early - isR * (e2 - 1);
-  out.ib = (is / p.betaF) * (e1 - 1) + isR * (e2 - 1);
+  out.ic = transport * early - isR * e2;
+  out.ib = (is / p.betaF) * e1 + isR * e2;
   out.dIcDvbe = d1 * early + transport * p.invVa;
   out.dIcDvbc = -d2 * early - transport * p.invVa - d2 / p.betaR;
   out.dIbDvbe = d1 / p.betaF;

@@ -3,7 +3,7 @@
  * resistance; a constant junction capacitance in the small-signal model.
  */
 import type { Diode } from '../circuit/types';
-import { criticalVoltage, expSlope, expValue } from './junction';
+import { criticalVoltage, expm1Value, expSlope } from './junction';
 import { saturationCurrentAt, thermalVoltage } from './temperature';
 
 /** A diode's parameters at the analysis temperature. */
@@ -37,7 +37,7 @@ export function diodeParams(part: Diode, tempC: number): DiodeParams {
 /** Evaluates the Shockley equation and its exact derivative at `vd` (anode − cathode). */
 export function evalDiode(p: DiodeParams, vd: number, out: DiodeEval): DiodeEval {
   const arg = vd / p.nvt;
-  out.id = p.is * (expValue(arg) - 1);
+  out.id = p.is * expm1Value(arg);
   out.gd = (p.is * expSlope(arg)) / p.nvt;
   return out;
 }

@@ -19,6 +19,14 @@ export function expValue(arg: number): number {
   return arg <= MAX_EXPONENT ? Math.exp(arg) : EXP_AT_MAX * (1 + (arg - MAX_EXPONENT));
 }
 
+/**
+ * exp(arg) − 1 with the same continuation, computed with expm1 so currents near 0 V keep full
+ * relative precision (KCL at a node at 0 V balances to the last bit, not to the roundoff of 1).
+ */
+export function expm1Value(arg: number): number {
+  return arg <= MAX_EXPONENT ? Math.expm1(arg) : EXP_AT_MAX * (1 + (arg - MAX_EXPONENT)) - 1;
+}
+
 /** d/d(arg) of {@link expValue}. */
 export function expSlope(arg: number): number {
   return arg <= MAX_EXPONENT ? Math.exp(arg) : EXP_AT_MAX;
