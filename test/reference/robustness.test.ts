@@ -1,0 +1,56 @@
+/**
+ * The contract's promise (§4): bad input gets diagnostics, never an exception, NaN or Infinity.
+ */
+import { describe, expect, it } from 'vitest';
+import { solveNetlist } from '../../solver/index';
+
+function allNumbersFinite(value: unknown): boolean {
+  if (typeof value === 'number') return Number.isFinite(value);
+  if (Array.isArray(value)) return value.every(allNumbersFinite);
+  if (value && typeof value === 'object') return Object.values(value).every(allNumbersFinite);
+  return true;
+}
+
+const BAD_INPUTS = [
+  '',
+  'garbage here',
+  'r1: res(a, b) 1meg',
+  'r1: res(a, gnd) 10 pF',
+  'q1: npn(c=a, b=b, e=gnd) nosuchmodel',
+  'v1: vsrc(a, gnd) 1\nv2: vsrc(a, gnd) 2',
+  'i1: isrc(gnd, a) 1m\nc1: cap(a, gnd) 1p',
+  'v1: vsrc(a, gnd) 1\nr1: res(a, gnd) 1k\nmeasure x = 1/0\nmeasure y = ic(q9)\ncheck x > 1',
+  'v1: vsrc(a, gnd) 1\nr1: res(a, gnd) 1k\nanalyze ac from 1 GHz to 1 Hz per decade 10\nmeasure f = corner(ac(a))',
+  'v1: vsrc(a, gnd) 1\nr1: res(a, gnd) 1k\nanalyze noise out a in v1 from 10 Hz to 1 MHz per decade 10\nanalyze poles',
+  'v1: vsrc(a, gnd) 1\nr1: res(a, gnd) 1k\nports in=(v1, v2) out=a',
+  'use nowhere/nothing@9\nx1: nothing(a=b)',
+  'vcc: vsrc(vcc, gnd) 1e308\nr1: res(vcc, gnd) 1e-300',
+];
+
+describe('robustness', () => {
+  it.each(BAD_INPUTS.map((t, k) => [k, t]))('input %i gives diagnostics, not an exception', (_k, text) => {
+    const r = solveNetlist(text as string);
+    expect(allNumbersFinite(r)).toBe(true);
+    expect(JSON.parse(JSON.stringify(r))).toEqual(r);
+    expect(Array.isArray(r.errors)).toBe(true);
+    expect(Array.isArray(r.warnings)).toBe(true);
+    for (const d of [...r.errors, ...r.warnings]) {
+      expect(d.line).toBeGreaterThanOrEqual(1);
+      expect(d.col).toBeGreaterThanOrEqual(1);
+      expect(d.message.length).toBeGreaterThan(0);
+    }
+  });
+
+  it('later analyses are warned as not yet available and the rest still runs', () => {
+    const r = solveNetlist('v1: vsrc(a, gnd) 1\nr1: res(a, gnd) 1k\nanalyze poles\nmeasure x = v(a)');
+    expect(r.errors).toEqual([]);
+    expect(r.warnings.some((w) => w.code === 'analysis-not-available' && w.line === 3)).toBe(true);
+    expect(r.measures.x).toBe(1);
+  });
+
+  it('measure errors sit on their own lines', () => {
+    const r = solveNetlist('v1: vsrc(a, gnd) 1\nr1: res(a, gnd) 1k\nmeasure x = ic(r1)\nmeasure y = corner(ac(a))\nmeasure z = v(a)');
+    expect(r.errors.map((e) => e.line)).toEqual([3, 4]);
+    expect(r.measures).toEqual({ z: 1 });
+  });
+});
