@@ -8,24 +8,23 @@
 import { SINGULAR_PIVOT } from './dense-lu';
 
 /**
- * Factors the n×n complex matrix (re, im) in place. Pivot choice by |z|² (the largest modulus).
+ * Factors the n×n complex matrix (re, im) in place. Pivot choice by |re| + |im| (as LAPACK's
+ * izamax does): within √2 of the largest modulus, and it cannot underflow.
  * Returns -1 on success, or the step at which the remaining column is zero.
  */
 export function complexLuFactor(re: Float64Array, im: Float64Array, n: number, pivots: Int32Array): number {
   for (let k = 0; k < n; k++) {
     let p = k;
-    let best = re[k * n + k] * re[k * n + k] + im[k * n + k] * im[k * n + k];
+    let best = Math.abs(re[k * n + k]) + Math.abs(im[k * n + k]);
     for (let i = k + 1; i < n; i++) {
-      const r = re[i * n + k];
-      const m = im[i * n + k];
-      const mag2 = r * r + m * m;
-      if (mag2 > best) {
-        best = mag2;
+      const mag = Math.abs(re[i * n + k]) + Math.abs(im[i * n + k]);
+      if (mag > best) {
+        best = mag;
         p = i;
       }
     }
     pivots[k] = p;
-    if (!(Math.sqrt(best) >= SINGULAR_PIVOT)) return k; // also catches NaN
+    if (!(best >= SINGULAR_PIVOT)) return k; // also catches NaN
     const rk = k * n;
     if (p !== k) {
       const rp = p * n;
