@@ -3,7 +3,7 @@
  * written, each written key checked against the table of §2 (unknown key: "did you mean").
  */
 import type { ModelStmt, ValueText } from '../parse/ast';
-import { defaultBjtModel, defaultDiodeModel, defaultMosModel, MODEL_KEYS, MODEL_KINDS, modelFamily, type Range } from '../parse/kinds';
+import { defaultBjtModel, defaultDiodeModel, defaultMosModel, article, MODEL_KEYS, MODEL_KINDS, modelFamily, type Range } from '../parse/kinds';
 import type { QuantityUnit } from '../parse/quantity';
 import { didYouMean } from '../parse/suggest';
 import type { SourceLoc } from './diagnostic';
@@ -31,7 +31,7 @@ export function evaluateModel(stmt: ModelStmt, ctx: ModelContext): ResolvedModel
     const key = kv.key.text;
     const spec = Object.prototype.hasOwnProperty.call(table, key) ? table[key] : undefined;
     if (!spec) {
-      ctx.report('unknown-param', kv.key.loc, `A ${kind} model has no parameter \`${key}\`.`, didYouMean(key, Object.keys(table)) ?? `its parameters are ${Object.keys(table).join(', ')}`);
+      ctx.report('unknown-param', kv.key.loc, `${article(kind) === 'an' ? 'An' : 'A'} ${kind} model has no parameter \`${key}\`.`, didYouMean(key, Object.keys(table)) ?? `its parameters are ${Object.keys(table).join(', ')}`);
       continue;
     }
     if (seen.has(key)) {

@@ -3,7 +3,7 @@
  * main value and keys evaluated and range-checked, the device model looked up.
  */
 import type { Connection, Name, PartStmt, ValueText } from '../parse/ast';
-import { DEFAULT_MOS_L, DEFAULT_MOS_W, defaultBjtModel, defaultDiodeModel, defaultMosModel, type KeySpec, type PartKindSpec, type Range } from '../parse/kinds';
+import { DEFAULT_MOS_L, DEFAULT_MOS_W, defaultBjtModel, defaultDiodeModel, defaultMosModel, article, type KeySpec, type PartKindSpec, type Range } from '../parse/kinds';
 import type { QuantityUnit } from '../parse/quantity';
 import { didYouMean } from '../parse/suggest';
 import type { SourceLoc } from './diagnostic';
@@ -51,7 +51,7 @@ export function resolvePins(
   }
   if (positional.length > 0) {
     if (named) {
-      ctx.report('error', 'named-pins', positional[0].node.loc, `The pins of a \`${label}\` are named: write (${pinList}).`, 'connections are named at the point of use, in any order');
+      ctx.report('error', 'named-pins', positional[0].node.loc, `The pins of ${article(label)} \`${label}\` are named: write (${pinList}).`, 'connections are named at the point of use, in any order');
       return undefined;
     }
     if (positional.length !== pins.length) {
@@ -81,6 +81,10 @@ export function resolvePins(
   return ok ? result : undefined;
 }
 
+function cap(s: string): string {
+  return s[0].toUpperCase() + s.slice(1);
+}
+
 /** Splits `MAG@PHASE` at its top-level `@`. */
 function splitAt(value: ValueText): [ValueText, ValueText | undefined] {
   const at = value.text.indexOf('@');
@@ -104,7 +108,7 @@ export function buildPart(ctx: PartContext, stmt: PartStmt, spec: PartKindSpec):
     if (!keySpec) {
       const known = Object.keys(spec.keys);
       ctx.report('error', 'unknown-param', kv.key.loc,
-        known.length === 0 ? `A \`${spec.kind}\` takes no parameter \`${kv.key.text}\`.` : `A \`${spec.kind}\` has no parameter \`${kv.key.text}\`.`,
+        known.length === 0 ? `${cap(article(spec.kind))} \`${spec.kind}\` takes no parameter \`${kv.key.text}\`.` : `${cap(article(spec.kind))} \`${spec.kind}\` has no parameter \`${kv.key.text}\`.`,
         didYouMean(kv.key.text, known) ?? (known.length ? `its parameters are ${known.join(', ')}` : undefined));
     } else if (keys.has(kv.key.text)) {
       ctx.report('error', 'duplicate-name', kv.key.loc, `\`${kv.key.text}=\` is given twice.`);
@@ -121,7 +125,7 @@ export function buildPart(ctx: PartContext, stmt: PartStmt, spec: PartKindSpec):
     if (stmt.main) {
       const text = stmt.main.text;
       if (!/^[A-Za-z_][A-Za-z0-9_]*$/.test(text)) {
-        ctx.report('error', 'syntax', stmt.main.loc, `The main value of a \`${spec.kind}\` is a model name, not \`${text}\`.`, `write ${spec.kind === 'nmos' || spec.kind === 'pmos' ? 'w=, l=, m=' : 'area='} for sizes`);
+        ctx.report('error', 'syntax', stmt.main.loc, `The main value of ${article(spec.kind)} \`${spec.kind}\` is a model name, not \`${text}\`.`, `write ${spec.kind === 'nmos' || spec.kind === 'pmos' ? 'w=, l=, m=' : 'area='} for sizes`);
         model = 'failed';
       } else {
         model = ctx.model(text);
@@ -129,7 +133,7 @@ export function buildPart(ctx: PartContext, stmt: PartStmt, spec: PartKindSpec):
           ctx.report('error', 'unknown-model', stmt.main.loc, `Unknown model \`${text}\`.`, didYouMean(text, ctx.modelNames()) ?? `define it with \`model ${text}: ${spec.kind}(...)\``);
           model = 'failed';
         } else if (model !== 'failed' && model.kind !== spec.kind) {
-          ctx.report('error', 'model-kind-mismatch', stmt.main.loc, `\`${text}\` is a ${model.kind} model but \`${name}\` is a ${spec.kind}.`, `use a ${spec.kind} model`);
+          ctx.report('error', 'model-kind-mismatch', stmt.main.loc, `\`${text}\` is ${article(model.kind)} ${model.kind} model but \`${name}\` is ${article(spec.kind)} ${spec.kind}.`, `use ${article(spec.kind)} ${spec.kind} model`);
           model = 'failed';
         }
       }

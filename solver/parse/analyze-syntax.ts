@@ -201,7 +201,7 @@ export function parseAnalyze(ctx: RequestContext, s: TokenStmt): AnalysisRequest
     case 'transfer': {
       const src = c.name('the source to sweep');
       if (!src) break;
-      const source = ctx.source(src.text, src.loc, 'for `analyze transfer`');
+      const source = ctx.source(src.text, src.loc, '`analyze transfer`');
       const part = ctx.scope.parts.get(src.text);
       const unit = part?.kind === 'isrc' ? 'A' : 'V';
       const values = linearSweep(c, unit, part?.kind === 'isrc' ? 'current' : 'voltage');
@@ -237,7 +237,7 @@ export function parseAnalyze(ctx: RequestContext, s: TokenStmt): AnalysisRequest
       if (!out || !input || !d) break;
       const outNode = ctx.node(out.text, out.loc, false);
       const refNode = outRef ? ctx.node(outRef.text, outRef.loc) : undefined;
-      const inSrc = ctx.source(input.text, input.loc, 'for `analyze noise`');
+      const inSrc = ctx.source(input.text, input.loc, '`analyze noise`');
       if (!outNode || !inSrc || (outRef && !refNode)) break;
       result = { kind: 'noise', out: outNode, ...(refNode ? { outRef: refNode } : {}), input: inSrc, fromHz: d.from, toHz: d.to, perDecade: d.perDecade, loc };
       break;

@@ -116,7 +116,7 @@ export function rewriteExpressionDetailed(
     } else if (t.type === 'number') {
       const q = parseQuantity(t.text, options.expectedUnit, options.slot);
       if (!q.ok) problems.push({ code: q.code, offset: t.start + q.offset, length: q.length, message: q.message, hint: q.hint });
-    } else if (t.type === 'op' && ALLOWED_OPS.has(t.text)) {
+    } else if ((t.type === 'op' || t.type === 'punct') && ALLOWED_OPS.has(t.text)) {
       // fine
     } else if (t.type !== 'ident') {
       const what = t.type === 'brace' ? 'braces inside an expression' : `\`${t.text}\``;

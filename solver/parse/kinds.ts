@@ -143,3 +143,8 @@ export function rangeProblem(value: number, range: Range): string | undefined {
       return undefined;
   }
 }
+
+/** "a" or "an" before a kind name as it is read aloud (an npn, an nmos, an isrc, a pnp, a res). */
+export function article(kind: string): 'a' | 'an' {
+  return /^(npn|nmos|isrc|ind|[aeiou])/.test(kind) ? 'an' : 'a';
+}

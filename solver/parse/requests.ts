@@ -8,7 +8,7 @@ import type { DiagnosticBag, SourceLoc } from '../circuit/diagnostic';
 import { GROUND, type Part } from '../circuit/types';
 import type { CheckStmt, MeasureStmt, RequestStmt, TokenStmt, ValueText } from './ast';
 import { evaluateExpression, PARAM_CONSTANTS, RESULT_FUNCTIONS, rewriteExpressionDetailed } from './expression';
-import { BUILTIN_FIGURES, rangeProblem, type Range } from './kinds';
+import { article, BUILTIN_FIGURES, rangeProblem, type Range } from './kinds';
 import type { QuantityUnit } from './quantity';
 import { parseAnalyze } from './analyze-syntax';
 import { didYouMean } from './suggest';
@@ -61,12 +61,12 @@ export class RequestContext {
     if (!part) {
       if (!this.scope.attemptedParts.has(name)) {
         const sources = [...this.scope.parts.values()].filter((p) => p.kind === 'vsrc' || p.kind === 'isrc').map((p) => p.name);
-        this.error('unknown-name', loc, `Unknown source \`${name}\` ${role}.`, didYouMean(name, sources) ?? (sources.length ? `sources are ${sources.slice(0, 8).join(', ')}` : 'add a vsrc or isrc'));
+        this.error('unknown-name', loc, `Unknown source \`${name}\` in ${role}.`, didYouMean(name, sources) ?? (sources.length ? `sources are ${sources.slice(0, 8).join(', ')}` : 'add a vsrc or isrc'));
       }
       return undefined;
     }
     if (part.kind !== 'vsrc' && part.kind !== 'isrc') {
-      this.error('not-a-source', loc, `\`${name}\` is a ${part.kind}, not an independent source; ${role} needs a vsrc or isrc.`);
+      this.error('not-a-source', loc, `\`${name}\` is ${article(part.kind)} ${part.kind}, not an independent source: ${role} needs a vsrc or isrc.`);
       return undefined;
     }
     return name;
@@ -176,8 +176,8 @@ function parsePorts(ctx: RequestContext, s: TokenStmt): PortsRequest | undefined
     ctx.error('pin-count', s.loc, `\`ports\` needs one or two output nodes in \`out=\`${outNames ? `; ${outNames.length} given` : ''}.`, usage);
     return undefined;
   }
-  const inP = ctx.source(inNames[0].name, inNames[0].loc, 'for `ports in=`');
-  const inN = ctx.source(inNames[1].name, inNames[1].loc, 'for `ports in=`');
+  const inP = ctx.source(inNames[0].name, inNames[0].loc, '`ports in=`');
+  const inN = ctx.source(inNames[1].name, inNames[1].loc, '`ports in=`');
   if (inP && inN && inP === inN) {
     ctx.error('duplicate-name', inNames[1].loc, `\`ports in=\` names \`${inP}\` twice; it needs two different sources.`);
     return undefined;
@@ -217,7 +217,7 @@ function resolveExpression(ctx: RequestContext, value: ValueText, measures: Set<
         continue;
       }
       if (fn === 'zin') {
-        if (!ctx.source(name, loc, 'for `zin`')) ok = false;
+        if (!ctx.source(name, loc, '`zin`')) ok = false;
         continue;
       }
       const part = parts.get(name);
@@ -232,10 +232,10 @@ function resolveExpression(ctx: RequestContext, value: ValueText, measures: Set<
         (BJT_FUNCTIONS.has(fn) && !bjt) || (MOS_FUNCTIONS.has(fn) && !mos && !(fn === 'id' && part.kind === 'diode')) || (fn === 'gm' && !bjt && !mos);
       if (wrong) {
         const needs = BJT_FUNCTIONS.has(fn) ? 'a bipolar transistor' : MOS_FUNCTIONS.has(fn) ? 'a MOS transistor' : 'a transistor';
-        ctx.error('wrong-kind', loc, `\`${fn}\` needs ${needs}; \`${name}\` is a ${part.kind}.`);
+        ctx.error('wrong-kind', loc, `\`${fn}\` needs ${needs}; \`${name}\` is ${article(part.kind)} ${part.kind}.`);
         ok = false;
       } else if (fn === 'i' && (bjt || mos)) {
-        ctx.error('wrong-kind', loc, `\`i\` takes a two-terminal part or source; \`${name}\` is a ${part.kind}.`, bjt ? 'use ic(), ib() or ie()' : 'use id()');
+        ctx.error('wrong-kind', loc, `\`i\` takes a two-terminal part or source; \`${name}\` is ${article(part.kind)} ${part.kind}.`, bjt ? 'use ic(), ib() or ie()' : 'use id()');
         ok = false;
       }
     }

@@ -101,7 +101,10 @@ export function parseFile(text: string, bag: DiagnosticBag, origin?: string): Fi
       }
       default: {
         const word = first.text;
-        const hint = first.type === 'ident' ? didYouMean(word, KEYWORDS) : undefined;
+        const missingColon = first.type === 'ident' && tokens[1]?.type === 'ident' && tokens[2]?.text === '(';
+        const hint = missingColon
+          ? `a part line reads \`name: kind(connections) value\`: write \`${word}: ${tokens[1].text}(…)\``
+          : first.type === 'ident' ? didYouMean(word, KEYWORDS) : undefined;
         ctx.error('unknown-statement', first, `\`${word}\` does not start a statement.`, hint ?? 'a part line reads `name: kind(connections) value`; statements start with title, param, option, model, block, use, analyze, ports, measure or check');
       }
     }
