@@ -132,8 +132,10 @@ measure zo = zout(out)
     // zout sees rl in parallel; min_g (1e-12 S per node) adds a few ppm of Rout.
     const fromZout = 1 / (1 / r.measures.zo - 1 / 1e3);
     expectRelative(fromZout, rout, 1e-3);
-    // The first-order estimate Rout ≈ β·ro2 when gm·ro ≫ 1 and ro1 ≫ rπ2 (same sources).
-    expectRelative(rout, BETA * q2.ro, 0.1);
+    // The first-order estimate Rout ≈ β·ro2 when gm·ro ≫ 1 and ro1 ≫ rπ2 (same sources), with
+    // the small-signal β = gm·rπ: the Early factor raises IC but not IB, so gm·rπ = β(1 + VCE/VA),
+    // some 20 % above the model's beta here. ro1 ‖ rπ2 < rπ2 costs ~5 %: tolerance 10 %.
+    expectRelative(rout, q2.gm * q2.rpi * q2.ro, 0.1);
 
     const held = solveOk(`
 model qc: npn(is=1e-16, beta=${BETA}, va=50)
