@@ -1,0 +1,192 @@
+import { ChangeDetectionStrategy, Component, computed, input, signal, viewChild } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import type { SolveResult } from '../../../../solver/result';
+import { BodePlot } from './plot/bode-plot';
+import { curveMarkers } from './plot/curve-markers';
+import { curveStyle } from './plot/palette';
+import { curvesCsv, downloadBlob, fileStem, svgToPng } from './plot/plot-export';
+import type { PlotSeries } from './plot/plot-geometry';
+import { PanelNotice, panelNotice } from './panel-notice';
+
+/** The figures of the ports analysis, in the order a designer reads them. */
+const PORTS_CURVES = ['adm', 'acm', 'cmrr'];
+
+/** Below this everywhere a curve is a node with no ac response (the engine reports 0 as −300 dB). */
+const SILENT_DB = -250;
+
+interface CurveEntry {
+  key: string;
+  group: 'ports' | 'nodes';
+  series: PlotSeries;
+}
+
+/**
+ * *Response*: the Bode plot of the ac sweep — the ports curves (adm, acm, cmrr) and every node's
+ * ac(n) — with a legend to show or hide each curve, the −3 dB and unity points of a chosen curve
+ * marked, a reading cursor, zoom and pan, and export as SVG, PNG or CSV.
+ */
+@Component({
+  selector: 'nw-response-panel',
+  imports: [BodePlot, MatButtonModule, PanelNotice],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    @if (notice(); as n) {
+      <nw-panel-notice [notice]="n" />
+    } @else {
+      <div class="toolbar">
+        <label class="marks">Mark −3 dB and 0 dB on
+          <select [value]="selectedKey()" (change)="selectCurve($any($event.target).value)" aria-label="Curve whose −3 dB and 0 dB points are marked">
+            @for (e of shown(); track e.key) { <option [value]="e.key" [selected]="e.key === selectedKey()">{{ e.key }}</option> }
+          </select>
+        </label>
+        <span class="spacer"></span>
+        <button mat-stroked-button type="button" (click)="plot()?.resetZoom()" [disabled]="!plot()?.zoomed()" aria-label="Reset zoom">Reset zoom</button>
+        <span class="export" role="group" aria-label="Export the plot">
+          <button mat-button type="button" (click)="exportSvg()" aria-label="Export the plot as SVG">SVG</button>
+          <button mat-button type="button" (click)="exportPng()" aria-label="Export the plot as PNG">PNG</button>
+          <button mat-button type="button" (click)="exportCsv()" aria-label="Export the plotted curves as CSV">CSV</button>
+        </span>
+      </div>
+      <div class="legend" role="group" aria-label="Curves shown">
+        @for (e of available(); track e.key) {
+          <button type="button" class="chip" [class.on]="isVisible(e.key)" [attr.aria-pressed]="isVisible(e.key)"
+                  [attr.data-key]="e.key" (click)="toggle(e.key)"
+                  [attr.aria-label]="(isVisible(e.key) ? 'Hide ' : 'Show ') + e.key">
+            <svg width="26" height="10" aria-hidden="true"><line x1="1" y1="5" x2="25" y2="5" [attr.stroke]="e.series.style.color" stroke-width="2.5" [attr.stroke-dasharray]="e.series.style.dash || null" /></svg>
+            <span class="tick" aria-hidden="true">{{ isVisible(e.key) ? '✓' : '' }}</span>{{ e.key }}
+          </button>
+        }
+      </div>
+      @if (silent().length > 0) {
+        <p class="silent">No ac response at {{ silent().join(', ') }}.</p>
+      }
+      @if (shown().length > 0) {
+        <nw-bode-plot [freqHz]="freqHz()" [series]="shownSeries()" [markers]="markers()"
+                      [ariaLabel]="'Bode plot of ' + shownKeys()" />
+      } @else {
+        <p class="empty">Choose a curve above to plot it.</p>
+      }
+      <p class="status" aria-live="polite">{{ status() }}</p>
+    }
+  `,
+  styles: `
+    :host { display: block; }
+    .toolbar { display: flex; flex-wrap: wrap; align-items: center; gap: 8px; margin-bottom: 6px; }
+    .marks { font-size: 0.875rem; color: var(--mat-sys-on-surface-variant); display: inline-flex; align-items: center; gap: 6px; }
+    select { font: inherit; color: var(--mat-sys-on-surface); background: var(--mat-sys-surface-container-lowest);
+      border: 1px solid var(--mat-sys-outline); border-radius: 4px; padding: 3px 6px; }
+    .spacer { flex: 1; }
+    .export { display: inline-flex; gap: 2px; }
+    .legend { display: flex; flex-wrap: wrap; gap: 6px; margin: 0 0 8px; }
+    .chip { display: inline-flex; align-items: center; gap: 4px; font: inherit; font-size: 0.875rem; cursor: pointer;
+      padding: 2px 10px 2px 6px; border-radius: 14px; border: 1px solid var(--mat-sys-outline-variant);
+      background: transparent; color: var(--mat-sys-on-surface-variant); }
+    .chip.on { background: var(--mat-sys-surface-container-high); color: var(--mat-sys-on-surface); border-color: var(--mat-sys-outline); font-weight: 600; }
+    .chip:not(.on) svg { opacity: 0.45; }
+    .chip .tick { display: inline-block; width: 0.8em; }
+    .silent, .empty, .status { font-size: 0.8125rem; color: var(--mat-sys-on-surface-variant); margin: 0 0 6px; }
+    .status { min-height: 1.2em; margin-top: 4px; }
+  `,
+})
+export class ResponsePanel {
+  readonly result = input<SolveResult | undefined>();
+
+  readonly plot = viewChild(BodePlot);
+  readonly status = signal('');
+  /** The user's own show/hide choices, kept across re-solves while the curve names persist. */
+  private readonly choices = signal<ReadonlyMap<string, boolean>>(new Map());
+  private readonly chosenMarkKey = signal<string | undefined>(undefined);
+
+  readonly notice = computed(() => panelNotice(this.result(), (r) => (r.ac && r.ac.freq_hz.length > 0 ? undefined : {
+    title: 'No frequency response yet',
+    text: 'Add an ac sweep to the netlist, for example:',
+    code: 'analyze ac from 10 Hz to 1 GHz per decade 20',
+  })));
+
+  readonly freqHz = computed(() => this.result()?.ac?.freq_hz ?? []);
+
+  /** Every curve of the sweep with its fixed style (colour and dash follow the order, not the toggles). */
+  private readonly entries = computed<CurveEntry[]>(() => {
+    const curves = this.result()?.ac?.curves ?? {};
+    const keys = [...PORTS_CURVES.filter((k) => k in curves), ...Object.keys(curves).filter((k) => !PORTS_CURVES.includes(k))];
+    return keys.map((key, index) => ({
+      key,
+      group: PORTS_CURVES.includes(key) ? 'ports' : 'nodes',
+      series: { key, label: key, db: curves[key].db, phase_deg: curves[key].phase_deg, style: curveStyle(index) },
+    }));
+  });
+
+  /** Node curves that are zero over the whole sweep (supplies, grounded inputs): named, not plotted. */
+  readonly silent = computed(() => this.entries().filter((e) => e.series.db.every((v) => v <= SILENT_DB)).map((e) => e.key.replace(/^ac\((.*)\)$/, '$1')));
+  readonly available = computed(() => this.entries().filter((e) => !e.series.db.every((v) => v <= SILENT_DB)));
+
+  /** Shown by default: the ports curves when there are ports, else the first few node curves. */
+  private readonly defaults = computed(() => {
+    const all = this.available();
+    const ports = all.filter((e) => e.group === 'ports');
+    return new Set((ports.length > 0 ? ports : all.slice(0, 3)).map((e) => e.key));
+  });
+
+  readonly shown = computed(() => this.available().filter((e) => this.isVisible(e.key)));
+  readonly shownSeries = computed(() => this.shown().map((e) => e.series));
+  readonly shownKeys = computed(() => this.shown().map((e) => e.key).join(', '));
+
+  readonly selectedKey = computed(() => {
+    const shown = this.shown();
+    const chosen = this.chosenMarkKey();
+    if (chosen && shown.some((e) => e.key === chosen)) return chosen;
+    return shown[0]?.key ?? '';
+  });
+
+  readonly markers = computed(() => {
+    const entry = this.shown().find((e) => e.key === this.selectedKey());
+    const curve = entry ? this.result()?.ac?.curves[entry.key] : undefined;
+    return entry && curve ? curveMarkers(entry.key, this.freqHz(), curve) : [];
+  });
+
+  isVisible(key: string): boolean {
+    return this.choices().get(key) ?? this.defaults().has(key);
+  }
+
+  toggle(key: string): void {
+    const next = new Map(this.choices());
+    next.set(key, !this.isVisible(key));
+    this.choices.set(next);
+  }
+
+  selectCurve(key: string): void {
+    this.chosenMarkKey.set(key);
+  }
+
+  /** CSV of the shown curves over the whole sweep: exactly the plotted numbers. */
+  csvText(): string {
+    return curvesCsv(this.freqHz(), this.shown().map((e) => ({ key: e.key, db: e.series.db, phase_deg: e.series.phase_deg })));
+  }
+
+  exportSvg(): void {
+    const plot = this.plot();
+    if (!plot) return;
+    this.save(new Blob([plot.svgText()], { type: 'image/svg+xml' }), 'svg');
+  }
+
+  async exportPng(): Promise<void> {
+    const plot = this.plot();
+    if (!plot) return;
+    const { width, height } = plot.size();
+    try {
+      this.save(await svgToPng(plot.svgText(), width, height, 2), 'png');
+    } catch (err) {
+      this.status.set(err instanceof Error ? err.message : 'The PNG could not be made.');
+    }
+  }
+
+  exportCsv(): void {
+    this.save(new Blob([this.csvText()], { type: 'text/csv' }), 'csv');
+  }
+
+  private save(blob: Blob, ext: string): void {
+    const name = `${fileStem(this.result()?.title)}-response.${ext}`;
+    downloadBlob(blob, name);
+    this.status.set(`Saved ${name}.`);
+  }
+}
