@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatPlain, formatSi } from './si-format';
+import { formatFigure, formatPlain, formatSi } from './si-format';
 
 // SI prefixes: BIPM, The International System of Units (SI Brochure), 9th ed., 2019, Table 7.
 describe('SI formatting', () => {
@@ -23,6 +23,13 @@ describe('SI formatting', () => {
     expect(formatSi(1e30, 'Ω')).toBe('∞ Ω');
     expect(formatSi(1e-20, 'A')).toBe('1.000e-20 A');
     expect(formatSi(3e16, 'Hz')).toBe('3.000e+16 Hz');
+  });
+
+  it('figures: plain in the everyday range, prefixed outside it', () => {
+    expect(formatFigure(0.3)).toBe('0.3');
+    expect(formatFigure(50.61)).toBe('50.61');
+    expect(formatFigure(1.2e7)).toBe('12.00 M');
+    expect(formatFigure(0.002)).toBe('2.000 m');
   });
 
   it('plain numbers', () => {

@@ -59,3 +59,13 @@ export function formatDb(db: number): string {
 export function formatDeg(deg: number): string {
   return `${deg.toFixed(1)}°`;
 }
+
+/**
+ * A unitless figure (measure, check value): plain digits in the everyday range, SI prefixes
+ * for the very large and very small (a corner at 12.00 M reads better than 1.200e+7).
+ */
+export function formatFigure(value: number, digits = 4): string {
+  const a = Math.abs(value);
+  if (value === 0 || (a >= 0.01 && a < 1e4)) return formatPlain(value, digits);
+  return formatSi(value, '', digits);
+}

@@ -4,7 +4,7 @@
  */
 import type { Diagnostic } from '../circuit/diagnostic';
 import type { BjtOp, ComplexFigure, DeviceOp, DiodeOp, MosOp, SolveResult } from '../result';
-import { formatDb, formatDeg, formatPlain, formatSi } from './si-format';
+import { formatDb, formatDeg, formatFigure, formatPlain, formatSi } from './si-format';
 
 /** The caution every report carries (design.md: "Cautions the product states"). */
 export const CAUTION =
@@ -113,14 +113,14 @@ export function formatReport(result: SolveResult): string {
   }
 
   const measures = Object.entries(result.measures);
-  lines.push(...section('Measures', table(['measure', 'value'], measures.map(([n, v]) => [n, formatSi(v)]))));
+  lines.push(...section('Measures', table(['measure', 'value'], measures.map(([n, v]) => [n, formatFigure(v)]))));
 
   lines.push(
     ...section(
       'Checks',
       table(
         ['', 'check', 'value', 'limit', 'margin', 'line'],
-        result.checks.map((c) => [c.pass ? 'PASS' : 'FAIL', c.text, formatSi(c.value), formatSi(c.limit), formatSi(c.margin), String(c.line)]),
+        result.checks.map((c) => [c.pass ? 'PASS' : 'FAIL', c.text, formatFigure(c.value), formatFigure(c.limit), formatFigure(c.margin), String(c.line)]),
       ),
     ),
   );
