@@ -76,8 +76,10 @@ export function parseQuantity(text: string, expectedUnit?: QuantityUnit, slot = 
   } else {
     return { ok: false, code: 'bad-unit', message: `\`${suffix}\` is neither an SI prefix nor a unit.`, hint: suffixHint(suffix), offset: suffixOffset, length: suffix.length };
   }
-  let value = Number(literal) * scale * (sign === '-' ? -1 : 1);
-  if (unit === '%') value /= 100;
+  // Scale in decimal (`10u` → 10e-6), not by a binary multiply, so `10u` is exactly 1e-5.
+  const exponent = Math.round(Math.log10(scale)) + (unit === '%' ? -2 : 0);
+  let value = /[eE]/.test(literal) ? Number(literal) * 10 ** exponent : Number(`${literal}e${exponent}`);
+  if (sign === '-') value = -value;
   if (!Number.isFinite(value)) {
     return { ok: false, code: 'bad-quantity', message: `\`${body}\` is too large to represent.`, offset: lead, length: body.length };
   }
