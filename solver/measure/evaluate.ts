@@ -125,7 +125,7 @@ export function evaluateMeasures(measureRequests: MeasureRequest[], checkRequest
       continue;
     }
     try {
-      const value = evaluate(`measure ${m.name}`, m.expr);
+      const value = evaluate('the value', m.expr);
       measures[m.name] = value;
       failed.delete(m.name);
       scope.set(m.name, value);
