@@ -39,7 +39,7 @@ export function drawPlot(svgEl: SVGSVGElement, geo: PlotGeometry, freqHz: readon
   ];
   if (geo.phase && geo.yPhase) panels.push({ box: geo.phase, y: geo.yPhase, ticks: geo.phaseTicks, values: (s) => s.phase_deg, name: 'phase', title: labels.phase, fmt: (v) => `${trim(v)}°` });
 
-  const ticks = logTicks(geo.x.domain()[0], geo.x.domain()[1], Math.max(3, Math.floor(geo.innerWidth / 70)));
+  const ticks = logTicks(geo.x.domain()[0], geo.x.domain()[1], Math.max(3, Math.floor(geo.innerWidth / 55)));
   for (const [index, panel] of panels.entries()) {
     const g = root.append('g').attr('class', `panel panel-${panel.name}`);
     const bottom = panel.box.top + panel.box.height;
