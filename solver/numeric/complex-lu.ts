@@ -5,7 +5,7 @@
  *
  * Split storage keeps every inner loop a pair of contiguous streams with no object creation.
  */
-import { SINGULAR_PIVOT } from './dense-lu';
+import { scratch, SINGULAR_PIVOT } from './dense-lu';
 
 /**
  * Factors the n×n complex matrix (re, im) in place. Pivot choice by |re| + |im| (as LAPACK's
@@ -44,6 +44,10 @@ export function complexLuFactor(re: Float64Array, im: Float64Array, n: number, p
     const d = (pr * pr + pi * pi) * s;
     const invR = pr / d;
     const invI = -pi / d;
+    // Only the pivot row's nonzero columns and the rows with a nonzero multiplier change.
+    const cols = scratch(n);
+    let nnz = 0;
+    for (let j = k + 1; j < n; j++) if (re[rk + j] !== 0 || im[rk + j] !== 0) cols[nnz++] = j;
     for (let i = k + 1; i < n; i++) {
       const ri = i * n;
       const ar = re[ri + k];
@@ -53,7 +57,8 @@ export function complexLuFactor(re: Float64Array, im: Float64Array, n: number, p
       const li = ar * invI + ai * invR;
       re[ri + k] = lr;
       im[ri + k] = li;
-      for (let j = k + 1; j < n; j++) {
+      for (let t = 0; t < nnz; t++) {
+        const j = cols[t];
         const ur = re[rk + j];
         const ui = im[rk + j];
         re[ri + j] -= lr * ur - li * ui;

@@ -9,6 +9,14 @@
 /** Pivots smaller than this (in magnitude) are treated as exact zeros: the matrix is singular. */
 export const SINGULAR_PIVOT = 1e-300;
 
+let scratchCols = new Int32Array(64);
+
+/** A reusable column-index buffer of at least n entries (grown, never shrunk: no per-call allocation). */
+export function scratch(n: number): Int32Array {
+  if (scratchCols.length < n) scratchCols = new Int32Array(Math.max(n, 2 * scratchCols.length));
+  return scratchCols;
+}
+
 /**
  * Factors `a` (n×n, row-major) into L·U in place: U on and above the diagonal, the unit-lower L
  * below it. Returns -1 on success, or the step (row) at which no usable pivot was found.
@@ -37,13 +45,21 @@ export function luFactor(a: Float64Array, n: number, pivots: Int32Array): number
       }
     }
     const inv = 1 / a[rk + k];
+    // MNA matrices are sparse and stay fairly sparse under elimination: update only the
+    // columns where the pivot row is nonzero, and only the rows with a nonzero multiplier.
+    const cols = scratch(n);
+    let nnz = 0;
+    for (let j = k + 1; j < n; j++) if (a[rk + j] !== 0) cols[nnz++] = j;
     for (let i = k + 1; i < n; i++) {
       const ri = i * n;
       const aik = a[ri + k];
-      if (aik === 0) continue; // MNA matrices are sparse: skip empty rows cheaply
+      if (aik === 0) continue;
       const l = aik * inv;
       a[ri + k] = l;
-      for (let j = k + 1; j < n; j++) a[ri + j] -= l * a[rk + j];
+      for (let t = 0; t < nnz; t++) {
+        const j = cols[t];
+        a[ri + j] -= l * a[rk + j];
+      }
     }
   }
   return -1;
