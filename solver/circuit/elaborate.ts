@@ -15,7 +15,7 @@ import { evaluateModel } from './elaborate-model';
 import { DEFAULT_OPTIONS, GROUND, type Circuit, type Part, type PartKind } from './types';
 
 /** Flattened parts beyond this are refused: a netlist this big is a runaway block expansion. */
-export const MAX_PARTS = 200_000;
+export const MAX_PARTS = 20_000;
 /** Deepest chain of block instances. */
 export const MAX_INSTANCE_DEPTH = 64;
 
@@ -57,6 +57,7 @@ interface Frame {
   anchor?: SourceLoc;
   /** Block definitions being instantiated, outermost first (recursion detection). */
   chain: BlockDef[];
+  partContext?: PartContext;
 }
 
 /** Where elaborated parts go (a scratch sink checks unused blocks). */
@@ -258,14 +259,8 @@ class Elaborator {
     const kind = stmt.partKind.text;
     const spec = Object.prototype.hasOwnProperty.call(PART_KINDS, kind) ? PART_KINDS[kind as PartKind] : undefined;
     if (spec) {
-      const ctx: PartContext = {
-        report: (severity, code, loc, message, hint) => this.report(frame, severity, code, loc, message, hint),
-        evaluate: (v, unit, slot, range) => this.evaluate(frame, v, unit, slot, range),
-        node: (n) => this.node(frame, n),
-        model: (n) => this.lookupModel(frame, n),
-        modelNames: () => this.modelNames(frame),
-        partName: frame.prefix + stmt.name.text,
-      };
+      const ctx = this.partContext(frame);
+      ctx.partName = frame.prefix + stmt.name.text;
       const part = buildPart(ctx, stmt, spec);
       if (!part) {
         this.markBroken(frame, stmt);
@@ -286,6 +281,21 @@ class Elaborator {
       ? `\`${kind}\` is a model: write \`${stmt.name.text}: ${isModel.kind}(…) ${kind}\``
       : didYouMean(kind, [...Object.keys(PART_KINDS), ...this.blockNames(frame)]) ?? `kinds are ${Object.keys(PART_KINDS).join(', ')}, or a block's name`;
     this.report(frame, 'error', 'unknown-kind', stmt.partKind.loc, `Unknown part kind or block \`${kind}\`.`, hint);
+  }
+
+  /** One PartContext per frame, reused for each of its parts (a netlist may have many). */
+  private partContext(frame: Frame): PartContext {
+    if (!frame.partContext) {
+      frame.partContext = {
+        report: (severity, code, loc, message, hint) => this.report(frame, severity, code, loc, message, hint),
+        evaluate: (v, unit, slot, range) => this.evaluate(frame, v, unit, slot, range),
+        node: (n) => this.node(frame, n),
+        model: (n) => this.lookupModel(frame, n),
+        modelNames: () => this.modelNames(frame),
+        partName: '',
+      };
+    }
+    return frame.partContext;
   }
 
   private addPart(frame: Frame, part: Part, sink: Sink): void {
