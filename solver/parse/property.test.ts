@@ -63,7 +63,9 @@ const mutation = fc.oneof(
   fc.record({ op: fc.constant('duplicate' as const), at: fc.nat(), len: fc.integer({ min: 1, max: 30 }) }),
 );
 
-function mutate(text: string, ops: fc.GeneratorValue<typeof mutation>[]): string {
+type Mutation = typeof mutation extends fc.Arbitrary<infer T> ? T : never;
+
+function mutate(text: string, ops: Mutation[]): string {
   let t = text;
   for (const m of ops) {
     const at = t.length === 0 ? 0 : m.at % t.length;
