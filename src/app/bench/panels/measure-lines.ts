@@ -3,6 +3,8 @@
  * name → value only; the panels read the netlist the bench already holds to find each
  * measure's line (to jump there) and its expression (to guess its unit).
  */
+import type { Unit } from './si-format';
+import { guessUnit } from './units';
 
 /** One `measure NAME = EXPR` statement. */
 export interface MeasureDefinition {
@@ -34,4 +36,14 @@ export function measureDefinitions(netlist: string | undefined): MeasureDefiniti
 function stripComment(line: string): string {
   const hash = line.indexOf('#');
   return hash >= 0 ? line.slice(0, hash) : line;
+}
+
+/**
+ * The unit of every measure of `netlist`, in statement order so that a measure built on an
+ * earlier one (`measure vmin = …` then `check vmin > 0.3`) inherits its unit.
+ */
+export function measureUnits(definitions: readonly MeasureDefinition[]): Record<string, Unit> {
+  const known: Record<string, Unit> = {};
+  for (const d of definitions) known[d.name] = guessUnit(d.expr, known);
+  return known;
 }

@@ -1,0 +1,59 @@
+import { TestBed } from '@angular/core/testing';
+import { solveNetlist } from '../../../../solver';
+import type { SolveResult } from '../../../../solver/result';
+import { ChecksPanel } from './checks-panel';
+import { HEADROOM_TROUBLE, RESISTOR_TAIL_PAIR } from './testing/netlists';
+
+async function render(result: SolveResult | undefined, netlist?: string) {
+  const fixture = TestBed.createComponent(ChecksPanel);
+  fixture.componentRef.setInput('result', result);
+  if (netlist !== undefined) fixture.componentRef.setInput('netlist', netlist);
+  const lines: number[] = [];
+  fixture.componentInstance.lineSelected.subscribe((l) => lines.push(l));
+  await fixture.whenStable();
+  return { fixture, el: fixture.nativeElement as HTMLElement, lines };
+}
+
+function cells(row: Element): string[] {
+  return [...row.children].map((c) => c.textContent!.trim());
+}
+
+describe('ChecksPanel', () => {
+  it('lists every check of the pair with pass, value, limit and margin in units', async () => {
+    const result = solveNetlist(RESISTOR_TAIL_PAIR);
+    const { el } = await render(result, RESISTOR_TAIL_PAIR);
+    expect(el.querySelector('.summary')!.textContent!.trim()).toContain('✓ 2 of 2 pass');
+    const rows = [...el.querySelectorAll('button.row')];
+    expect(rows.length).toBe(2);
+    const [cmrr, ic] = result.checks;
+    // CMRR in dB keeps decimals; the collector current gets SI prefixes and its ± tolerance.
+    expect(cells(rows[0])).toEqual(['✓ pass', 'cmrr_db >= 40', `${cmrr.value.toFixed(1)} dB`, '≥ 40.0 dB', `+${cmrr.margin.toFixed(1)} dB`, '16']);
+    expect(cells(rows[1])).toEqual(['✓ pass', 'ic(q1) = 1m ± 5%', `${(ic.value * 1e6).toPrecision(3)} µA`, '= 1.00 mA ± 5%', `+${(ic.margin * 1e6).toPrecision(3)} µA`, '17']);
+  });
+
+  it('flags failures with a word and a symbol, not colour alone, and counts them', async () => {
+    const result = solveNetlist(HEADROOM_TROUBLE);
+    const { el } = await render(result, HEADROOM_TROUBLE);
+    expect(result.checks.every((c) => !c.pass)).toBe(true);
+    expect(el.querySelector('.summary')!.textContent).toContain('✗ 0 of 2 pass');
+    const rows = [...el.querySelectorAll('button.row')];
+    // vmin is a measure of vce values: its check inherits volts from the measure's expression.
+    expect(cells(rows[0])).toEqual(['✗ fail', 'vmin > 0.3', '43.8 mV', '> 300 mV', '-256 mV', '27']);
+    expect(cells(rows[1]).slice(0, 2)).toEqual(['✗ fail', 'id(m1) <= 100u']);
+    expect(rows[1].getAttribute('aria-label')).toContain('fails');
+  });
+
+  it('emits the check\'s line on click and on Enter (a native button)', async () => {
+    const { el, lines } = await render(solveNetlist(RESISTOR_TAIL_PAIR));
+    const rows = [...el.querySelectorAll('button.row')] as HTMLButtonElement[];
+    rows[1].click();
+    expect(lines).toEqual([17]);
+    expect(rows[0].tagName).toBe('BUTTON');
+    expect(rows[0].type).toBe('button');
+  });
+
+  it('says how to write a check when there is none', async () => {
+    const { el } = await render(solveNetlist('title t\nv1: vsrc(a, gnd) 1\nr1: res(a, gnd) 1k\n'));
+    expect(el.textContent).toContain('check cmrr_db >= 80');
+  });
+});

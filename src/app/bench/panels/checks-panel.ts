@@ -1,0 +1,108 @@
+import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
+import type { CheckResult, SolveResult } from '../../../../solver/result';
+import { measureDefinitions, measureUnits } from './measure-lines';
+import { PanelNotice, panelNotice } from './panel-notice';
+import { STATUS_STYLES } from './panel-styles';
+import { formatQuantity, formatSigned, type Unit } from './si-format';
+import { checkSubject, guessUnit } from './units';
+
+const OPERATOR_SIGNS: Record<string, string> = { '>=': '≥', '<=': '≤', '>': '>', '<': '<', '=': '=' };
+
+interface CheckRow {
+  check: CheckResult;
+  unit: Unit;
+  value: string;
+  limit: string;
+  margin: string;
+  label: string;
+}
+
+/**
+ * *Checks*: every `check` of the netlist with pass or fail (word, symbol and colour), its value,
+ * limit and margin (signed distance to failing), and a summary "N of M pass". Choosing a check
+ * (click, Enter or Space) emits its line so the editor can jump there.
+ */
+@Component({
+  selector: 'nw-checks-panel',
+  imports: [PanelNotice],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    @if (notice(); as n) {
+      <nw-panel-notice [notice]="n" />
+    } @else {
+      <p class="summary" [class.all]="passed() === rows().length" role="status">
+        <span class="tag" [class.pass]="passed() === rows().length" [class.fail]="passed() < rows().length">
+          {{ passed() === rows().length ? '✓' : '✗' }} {{ passed() }} of {{ rows().length }} pass
+        </span>
+        @if (passed() < rows().length) { <span class="hint">{{ rows().length - passed() }} failing — choose one to go to its line.</span> }
+      </p>
+      <div class="head" aria-hidden="true">
+        <span>Result</span><span>Check</span><span class="r">Value</span><span class="r">Limit</span><span class="r">Margin</span><span class="r">Line</span>
+      </div>
+      <ul class="list" aria-label="Checks">
+        @for (row of rows(); track $index) {
+          <li>
+            <button type="button" class="row" [class.failing]="!row.check.pass" (click)="lineSelected.emit(row.check.line)" [attr.aria-label]="row.label">
+              <span><span class="tag" [class.pass]="row.check.pass" [class.fail]="!row.check.pass">{{ row.check.pass ? '✓ pass' : '✗ fail' }}</span></span>
+              <span class="mono text">{{ row.check.text }}</span>
+              <span class="num r">{{ row.value }}</span>
+              <span class="num r">{{ row.limit }}</span>
+              <span class="num r margin" [class.neg]="row.check.margin < 0">{{ row.margin }}</span>
+              <span class="num r line">{{ row.check.line }}</span>
+            </button>
+          </li>
+        }
+      </ul>
+    }
+  `,
+  styles: [STATUS_STYLES, `
+    :host { display: block; }
+    .summary { display: flex; align-items: center; gap: 10px; margin: 0 0 10px; }
+    .summary .tag { font-size: 1rem; padding: 2px 10px; }
+    .hint { font-size: 0.875rem; color: var(--mat-sys-on-surface-variant); }
+    .head, .row { display: grid; grid-template-columns: 76px minmax(140px, 1fr) 84px 96px 90px 40px; gap: 8px; align-items: center; }
+    .head { font-size: 0.75rem; font-weight: 700; color: var(--mat-sys-on-surface-variant); padding: 0 8px 4px;
+      border-bottom: 1px solid var(--mat-sys-outline-variant); text-transform: uppercase; letter-spacing: 0.04em; }
+    .r { text-align: right; }
+    .list { list-style: none; margin: 0; padding: 0; }
+    .row { width: 100%; font: inherit; font-size: 0.875rem; text-align: left; color: var(--mat-sys-on-surface);
+      background: transparent; border: 0; border-bottom: 1px solid var(--mat-sys-outline-variant); padding: 6px 8px; cursor: pointer; }
+    .row:hover { background: var(--mat-sys-surface-container); }
+    .row.failing { background: #FCF1EF; }
+    .row.failing:hover { background: #F9E0DD; }
+    .text { overflow-wrap: anywhere; }
+    .margin.neg { color: #A3221B; font-weight: 600; }
+    .line { color: var(--mat-sys-on-surface-variant); }
+  `],
+})
+export class ChecksPanel {
+  readonly result = input<SolveResult | undefined>();
+  /** The netlist text, to learn the units of measures the checks refer to (optional). */
+  readonly netlist = input<string>();
+  /** The line of the chosen check. */
+  readonly lineSelected = output<number>();
+
+  readonly notice = computed(() => panelNotice(this.result(), (r) => (r.checks.length > 0 ? undefined : {
+    title: 'No checks',
+    text: 'State the spec as checks and they are verified on every solve, for example:',
+    code: 'check cmrr_db >= 80',
+  })));
+
+  private readonly knownUnits = computed(() => measureUnits(measureDefinitions(this.netlist())));
+
+  readonly rows = computed<CheckRow[]>(() => (this.result()?.checks ?? []).map((check) => {
+    const subject = checkSubject(check.text);
+    const unit = guessUnit(subject, this.knownUnits());
+    const op = /(>=|<=|=|>|<)/.exec(check.text.slice(subject.length))?.[1] ?? '';
+    const tolerance = /(?:±|\+-)\s*(.+)$/.exec(check.text)?.[1]?.trim();
+    const value = formatQuantity(check.value, unit);
+    const limit = `${OPERATOR_SIGNS[op] ?? op} ${formatQuantity(check.limit, unit)}${tolerance ? ` ± ${tolerance}` : ''}`.trim();
+    const margin = formatSigned(check.margin, unit);
+    return {
+      check, unit, value, limit, margin,
+      label: `${check.text}: ${check.pass ? 'passes' : 'fails'}; value ${value}, limit ${limit}, margin ${margin}; line ${check.line}`,
+    };
+  }));
+
+  readonly passed = computed(() => this.rows().filter((r) => r.check.pass).length);
+}

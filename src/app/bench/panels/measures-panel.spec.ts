@@ -1,0 +1,50 @@
+import { TestBed } from '@angular/core/testing';
+import { solveNetlist } from '../../../../solver';
+import type { SolveResult } from '../../../../solver/result';
+import { MeasuresPanel } from './measures-panel';
+import { HEADROOM_TROUBLE, LOADED_PAIR, MOS_PAIR_SINGLE } from './testing/netlists';
+
+async function render(result: SolveResult | undefined, netlist?: string) {
+  const fixture = TestBed.createComponent(MeasuresPanel);
+  fixture.componentRef.setInput('result', result);
+  if (netlist !== undefined) fixture.componentRef.setInput('netlist', netlist);
+  const lines: number[] = [];
+  fixture.componentInstance.lineSelected.subscribe((l) => lines.push(l));
+  await fixture.whenStable();
+  return { el: fixture.nativeElement as HTMLElement, lines };
+}
+
+const values = (el: HTMLElement) => [...el.querySelectorAll('.row')].map((r) => [r.querySelector('.name')!.textContent, r.querySelector('.value')!.textContent]);
+
+describe('MeasuresPanel', () => {
+  it('writes each measure in the unit its expression implies, and emits its line', async () => {
+    const result = solveNetlist(LOADED_PAIR);
+    const { el, lines } = await render(result, LOADED_PAIR);
+    const m = result.measures;
+    expect(values(el)).toEqual([
+      ['a0', `${m['a0'].toFixed(1)} dB`],
+      ['f3', `${(m['f3'] / 1e6).toPrecision(3)} MHz`],
+      ['fu', `${(m['fu'] / 1e6).toPrecision(3)} MHz`],
+    ]);
+    expect(el.querySelector('.row .expr')!.textContent).toBe('= db(adm)');
+    (el.querySelectorAll('button.row')[1] as HTMLButtonElement).click();
+    const f3Line = LOADED_PAIR.split('\n').findIndex((l) => l.startsWith('measure f3')) + 1;
+    expect(f3Line).toBeGreaterThan(1);
+    expect(lines).toEqual([f3Line]);
+  });
+
+  it('gives volts to a min() of VCEs and siemens to a gm', async () => {
+    const result = solveNetlist(HEADROOM_TROUBLE);
+    const { el } = await render(result, HEADROOM_TROUBLE);
+    expect(values(el)).toEqual([['vmin', '43.8 mV'], ['gm3', '926 µS']]);
+  });
+
+  it('without the netlist shows plain SI numbers and emits nothing', async () => {
+    const result = solveNetlist(MOS_PAIR_SINGLE);
+    const { el, lines } = await render(result);
+    expect(el.querySelector('button.row')).toBeNull();
+    expect(values(el)).toEqual([['gain', Number(result.measures['gain'].toPrecision(3)).toFixed(2)]]);
+    (el.querySelector('.row') as HTMLElement).click();
+    expect(lines).toEqual([]);
+  });
+});

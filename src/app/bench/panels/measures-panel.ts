@@ -1,0 +1,90 @@
+import { NgTemplateOutlet } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
+import type { SolveResult } from '../../../../solver/result';
+import { measureDefinitions, measureUnits } from './measure-lines';
+import { PanelNotice, panelNotice } from './panel-notice';
+import { STATUS_STYLES } from './panel-styles';
+import { formatQuantity, type Unit } from './si-format';
+
+interface MeasureRow {
+  name: string;
+  value: string;
+  unit: Unit;
+  expr?: string;
+  line?: number;
+}
+
+/**
+ * Measures: each `measure` with its value in the unit its expression implies (db → dB,
+ * corner/unity → Hz, margin → °, ic → A …; a plain SI number otherwise). When the netlist text
+ * is given, each measure shows its expression and choosing it emits its line; without it there
+ * is no line to go to, and nothing is emitted.
+ */
+@Component({
+  selector: 'nw-measures-panel',
+  imports: [PanelNotice, NgTemplateOutlet],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    @if (notice(); as n) {
+      <nw-panel-notice [notice]="n" />
+    } @else {
+      <ul class="list" aria-label="Measures">
+        @for (row of rows(); track row.name) {
+          <li>
+            @if (row.line !== undefined) {
+              <button type="button" class="row" (click)="lineSelected.emit(row.line)"
+                      [attr.aria-label]="row.name + ' = ' + row.value + ', line ' + row.line">
+                <ng-container *ngTemplateOutlet="body; context: { $implicit: row }" />
+              </button>
+            } @else {
+              <div class="row static"><ng-container *ngTemplateOutlet="body; context: { $implicit: row }" /></div>
+            }
+          </li>
+        }
+      </ul>
+      <ng-template #body let-row>
+        <span class="name mono">{{ row.name }}</span>
+        <span class="value num">{{ row.value }}</span>
+        <span class="expr mono">{{ row.expr ? '= ' + row.expr : '' }}</span>
+        <span class="line num">{{ row.line !== undefined ? 'line ' + row.line : '' }}</span>
+      </ng-template>
+    }
+  `,
+  styles: [STATUS_STYLES, `
+    :host { display: block; }
+    .list { list-style: none; margin: 0; padding: 0; }
+    .row { display: grid; grid-template-columns: minmax(70px, max-content) 110px minmax(0, 1fr) 56px; gap: 12px; align-items: baseline;
+      width: 100%; font: inherit; font-size: 0.875rem; text-align: left; color: var(--mat-sys-on-surface);
+      background: transparent; border: 0; border-bottom: 1px solid var(--mat-sys-outline-variant); padding: 6px 8px; }
+    button.row { cursor: pointer; }
+    button.row:hover { background: var(--mat-sys-surface-container); }
+    .name { font-weight: 700; }
+    .value { font-size: 1rem; font-weight: 600; text-align: right; }
+    .expr { color: var(--mat-sys-on-surface-variant); overflow-wrap: anywhere; }
+    .line { color: var(--mat-sys-on-surface-variant); text-align: right; font-size: 0.8125rem; }
+  `],
+})
+export class MeasuresPanel {
+  readonly result = input<SolveResult | undefined>();
+  /** The netlist text: gives each measure its line and expression (optional). */
+  readonly netlist = input<string>();
+  /** The line of the chosen measure. */
+  readonly lineSelected = output<number>();
+
+  readonly notice = computed(() => panelNotice(this.result(), (r) => (Object.keys(r.measures).length > 0 ? undefined : {
+    title: 'No measures',
+    text: 'Name the figures you care about and they are computed on every solve, for example:',
+    code: 'measure f3 = corner(adm)',
+  })));
+
+  readonly rows = computed<MeasureRow[]>(() => {
+    const definitions = measureDefinitions(this.netlist());
+    const units = measureUnits(definitions);
+    return Object.entries(this.result()?.measures ?? {}).map(([name, value]) => {
+      // The last definition wins, as a redefinition would in the solver's order.
+      const def = definitions.filter((d) => d.name === name).at(-1);
+      const unit = units[name] ?? '';
+      return { name, value: formatQuantity(value, unit), unit, expr: def?.expr, line: def?.line };
+    });
+  });
+}
