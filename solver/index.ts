@@ -5,7 +5,7 @@
  *   solveNetlist(text, { resolveUse })  → the §5 result object (never throws)
  *   formatReport(result)                → the readable text report
  */
-export { solveNetlist, type SolveOptions } from './solve';
+export { solveNetlist, solveCircuit, type SolveOptions, type CircuitRun } from './solve';
 export { parseNetlist } from './parse/parse-netlist';
 export type * from './parse/parse-netlist';
 export { formatReport, CAUTION } from './report/text-report';

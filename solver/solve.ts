@@ -13,7 +13,7 @@ import type { AcRequest, AnalysisRequest, Requests, TransferRequest } from './ci
 import type { Diagnostic, SourceLoc } from './circuit/diagnostic';
 import type { Circuit, Part } from './circuit/types';
 import type { AcResult, Curve, SolveResult, TransferResult } from './result';
-import type { AcSolution, AcSolver, Excitation, LinearSystem, OperatingPoint, Phasor } from './analysis/engine-api';
+import type { AcSolution, AcSolver, Excitation, OperatingPoint, Phasor } from './analysis/engine-api';
 import { isOpFailure, solveOperatingPoint } from './analysis/operating-point';
 import { linearize } from './analysis/small-signal';
 import { createAcSolver } from './analysis/ac-solve';
@@ -63,21 +63,40 @@ function solveUnguarded(text: string, options: SolveOptions): SolveResult {
   const parsed = parseNetlist(text, { resolveUse: options.resolveUse });
   const diagnostics: Diagnostic[] = [...parsed.diagnostics];
   const circuit = parsed.circuit;
-  const requests = parsed.requests;
-  const result = emptyResult(circuit?.title ?? '', circuit?.options.temp ?? 27);
-  const finish = () => {
-    const ordered = [...diagnostics].sort((a, b) => a.line - b.line || a.col - b.col);
-    result.errors = ordered.filter((d) => d.severity === 'error');
-    result.warnings = ordered.filter((d) => d.severity !== 'error');
-    return result;
-  };
-  if (!circuit || diagnostics.some((d) => d.severity === 'error')) return finish();
-
-  const op = solveOperatingPoint(circuit);
-  if (isOpFailure(op)) {
-    diagnostics.push(...op.errors);
-    return finish();
+  let result = emptyResult(circuit?.title ?? '', circuit?.options.temp ?? 27);
+  if (circuit && !diagnostics.some((d) => d.severity === 'error')) {
+    for (const r of parsed.requests.analyses) {
+      if (LATER_ANALYSES.has(r.kind)) {
+        diagnostics.push(diag('warning', 'analysis-not-available', r.loc, `analyze ${r.kind} is not yet available in this version; the line is skipped.`, 'the other analyses run as usual'));
+      }
+    }
+    const run = solveCircuit(circuit, parsed.requests);
+    result = { ...result, ...run.result };
+    diagnostics.push(...run.diagnostics);
   }
+  const ordered = [...diagnostics].sort((a, b) => a.line - b.line || a.col - b.col);
+  result.errors = ordered.filter((d) => d.severity === 'error');
+  result.warnings = ordered.filter((d) => d.severity !== 'error');
+  return result;
+}
+
+/** What one run over an elaborated circuit yields: result members and diagnostics. */
+export interface CircuitRun {
+  result: Pick<SolveResult, 'op' | 'ports' | 'ac' | 'transfer' | 'measures' | 'checks'>;
+  diagnostics: Diagnostic[];
+}
+
+/**
+ * One run of the per-circuit analyses: operating point, ports, ac, transfer, then measures and
+ * checks over their results. A function of the elaborated circuit and its requests only, so the
+ * sweeping analyses (vary, temp, mismatch) can call it once per variant and compose the runs.
+ * May throw on an engine defect; solveNetlist guards it.
+ */
+export function solveCircuit(circuit: Circuit, requests: Requests): CircuitRun {
+  const diagnostics: Diagnostic[] = [];
+  const result: CircuitRun['result'] = { measures: {}, checks: [] };
+  const op = solveOperatingPoint(circuit);
+  if (isOpFailure(op)) return { result, diagnostics: op.errors };
   result.op = op.report;
   diagnostics.push(...op.warnings);
 
@@ -85,11 +104,6 @@ function solveUnguarded(text: string, options: SolveOptions): SolveResult {
   const solver = createAcSolver(system);
   const ctx: MeasureContext = { op: op.report, params: requests.params, linear: { system, solver } };
 
-  for (const r of requests.analyses) {
-    if (LATER_ANALYSES.has(r.kind)) {
-      diagnostics.push(diag('warning', 'analysis-not-available', r.loc, `analyze ${r.kind} is not yet available in this version; the line is skipped.`, 'the other analyses run as usual'));
-    }
-  }
   const acRequest = firstOfKind(requests.analyses, 'ac', diagnostics) as AcRequest | undefined;
   const sweep = acRequest ? acFrequencies(acRequest, diagnostics) : undefined;
 
@@ -104,7 +118,7 @@ function solveUnguarded(text: string, options: SolveOptions): SolveResult {
   }
 
   if (acRequest && sweep) {
-    const ac = runAc(circuit, system, solver, sweep, ports, requests, acRequest, diagnostics);
+    const ac = runAc(circuit, solver, sweep, ports, requests, acRequest, diagnostics);
     result.ac = ac.result;
     ctx.ac = { freqHz: sweep, portsCurves: ports?.curves, solutions: ac.solutions };
   }
@@ -119,7 +133,7 @@ function solveUnguarded(text: string, options: SolveOptions): SolveResult {
   result.measures = measured.measures;
   result.checks = measured.checks;
   diagnostics.push(...measured.diagnostics);
-  return finish();
+  return { result, diagnostics };
 }
 
 /** The first request of a kind; a warning on each further one, which is ignored. */
@@ -165,7 +179,6 @@ function topLevelNodes(circuit: Circuit): string[] {
 
 function runAc(
   circuit: Circuit,
-  system: LinearSystem,
   solver: AcSolver,
   sweep: number[],
   ports: PortsOutcome | undefined,

@@ -83,3 +83,13 @@ describe('measure evaluation', () => {
     expect(out.diagnostics).toHaveLength(1);
   });
 });
+
+describe('mathjs subset', () => {
+  it('offers the everyday functions and nothing of the rest', () => {
+    const out = run([m('a', 'exp(log(2))'), m('b', 'pow(2, 10)'), m('c', 'sqrt(16) + abs(-1) + log10(1000) + max(1, 2) + min(3, 4)'), m('d', 'sin(1)')]);
+    expect(out.measures.a).toBeCloseTo(2, 12);
+    expect(out.measures.b).toBe(1024);
+    expect(out.measures.c).toBe(13);
+    expect(out.diagnostics.map((d) => d.message)).toEqual([expect.stringMatching(/unknown function `sin`/)]);
+  });
+});
