@@ -1,0 +1,85 @@
+/**
+ * The line above the result panels that a designer reads first: do the checks pass, the key
+ * figures, how fresh the numbers are — and, while a long solve runs, its progress and a cancel.
+ */
+import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import type { SolveResult } from '../../../solver';
+import type { SolveStatus } from './solver-client';
+
+function db(value: number | undefined): string {
+  return value === undefined || !Number.isFinite(value) ? '—' : `${value.toFixed(1)} dB`;
+}
+
+@Component({
+  selector: 'nw-results-summary',
+  imports: [MatButtonModule, MatProgressBarModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <div class="line" aria-live="polite">
+      @if (checks(); as c) {
+        <span class="verdict" [class.fail]="c.failed > 0" [class.pass]="c.failed === 0 && c.total > 0">
+          @if (c.total === 0) { No checks }
+          @else if (c.failed === 0) { <span aria-hidden="true">✓</span> All {{ c.total }} checks pass }
+          @else { <span aria-hidden="true">✕</span> {{ c.failed }} of {{ c.total }} checks fail }
+        </span>
+      }
+      @if (result()?.ports; as p) {
+        <span class="fig"><abbr title="differential gain vod/vid">adm</abbr> {{ db(p.adm.db) }}</span>
+        <span class="fig"><abbr title="common-mode rejection ratio |adm/acm|">CMRR</abbr> {{ db(p.cmrr_db) }}</span>
+      }
+      <span class="spacer"></span>
+      @if (stale()) {
+        <span class="stale" role="status">Showing the last result that solved — fix the {{ errorCount() === 1 ? 'error' : errorCount() + ' errors' }} in the editor</span>
+      } @else if (status() === 'cancelled') {
+        <span class="stale" role="status">Solve cancelled — press Solve or edit to run it again</span>
+      } @else if (status() === 'failed') {
+        <span class="stale" role="alert">The solver stopped: {{ failure() }}</span>
+      } @else if (solveMs() !== undefined && status() === 'idle') {
+        <span class="time">solved in {{ solveMs()! < 10 ? solveMs()!.toFixed(1) : solveMs()!.toFixed(0) }} ms</span>
+      }
+      @if (slow()) {
+        <span class="solving" role="status">Solving…</span>
+        <button mat-stroked-button type="button" class="cancel" (click)="cancel.emit()" aria-label="Cancel the solve">Cancel</button>
+      }
+    </div>
+    @if (slow()) {
+      <mat-progress-bar mode="indeterminate" aria-label="Solving the netlist" />
+    } @else {
+      <div class="bar-space"></div>
+    }
+  `,
+  styles: `
+    :host { display: block; }
+    .line { display: flex; align-items: center; gap: 14px; min-height: 36px; padding: 0 4px; font-size: 0.9375rem; flex-wrap: wrap; }
+    .verdict { font-weight: 700; padding: 2px 10px; border-radius: 12px; background: var(--mat-sys-surface-container-high); }
+    .verdict.pass { background: #d7eedf; color: #0c4a2f; }
+    .verdict.fail { background: #f7d9d6; color: #7a1812; }
+    .fig { font-variant-numeric: tabular-nums; }
+    abbr { text-decoration: none; color: var(--mat-sys-on-surface-variant); }
+    .spacer { flex: 1; }
+    .time { color: var(--mat-sys-on-surface-variant); font-size: 0.8125rem; }
+    .stale { color: #6b4600; font-size: 0.875rem; background: #fbecc8; padding: 2px 8px; border-radius: 4px; }
+    .solving { color: var(--mat-sys-tertiary); font-weight: 600; }
+    .cancel { --mat-button-outlined-container-height: 28px; }
+    .bar-space { height: 4px; }
+  `,
+})
+export class ResultsSummary {
+  readonly result = input<SolveResult | undefined>();
+  readonly stale = input(false);
+  readonly errorCount = input(0);
+  readonly status = input<SolveStatus>('idle');
+  readonly slow = input(false);
+  readonly solveMs = input<number | undefined>();
+  readonly failure = input<string | undefined>();
+  readonly cancel = output<void>();
+
+  protected readonly db = db;
+  protected readonly checks = computed(() => {
+    const r = this.result();
+    if (!r || !r.op) return undefined;
+    return { total: r.checks.length, failed: r.checks.filter((c) => !c.pass).length };
+  });
+}
