@@ -11,8 +11,17 @@ import { limitJunctionStep, limitVoltageStep } from '../devices/junction';
 import { evalMos, mosParams, newMosEval, type MosEval, type MosParams } from '../devices/mos';
 import { addEntry, nodeRow, type MnaLayout } from './mna';
 
-/** Largest change of a MOS gate–source (or gate–drain) voltage in one Newton step, in volts. */
+/**
+ * Largest change of a MOS gate–source (or gate–drain) voltage in one Newton step: 0.5 V plus
+ * the present distance from threshold, so steps stay small around threshold (where the square
+ * law turns on) and can double the overdrive far from it (a gate at 500 V is reached in a dozen
+ * steps, not a thousand).
+ */
 export const MOS_GATE_STEP = 0.5;
+
+function gateStepCap(vOld: number, p: MosParams): number {
+  return MOS_GATE_STEP + Math.abs(p.polarity * vOld - p.vth0);
+}
 
 export interface BjtInstance {
   part: Bjt;
@@ -165,10 +174,10 @@ export class DeviceSet {
           // Cap the gate step against whichever terminal acts as the source.
           const s = m.p.polarity;
           if (s * (rawGs - rawGd) >= 0) {
-            vgs = limitVoltageStep(rawGs, m.vgs, MOS_GATE_STEP);
+            vgs = limitVoltageStep(rawGs, m.vgs, gateStepCap(m.vgs, m.p));
             vgd = rawGd + (vgs - rawGs);
           } else {
-            vgd = limitVoltageStep(rawGd, m.vgd, MOS_GATE_STEP);
+            vgd = limitVoltageStep(rawGd, m.vgd, gateStepCap(m.vgd, m.p));
             vgs = rawGs + (vgd - rawGd);
           }
         }

@@ -17,6 +17,10 @@ import { buildOpReport, reportIsFinite } from './op-report';
 export const GMIN_START = 1e-2;
 /** Bound on the continuation steps of each stepping method. */
 export const MAX_STEPS = 60;
+/** Newton iterations allowed per continuation step (each step starts next to its solution). */
+export const STEP_ITER_LIMIT = 100;
+/** Total Newton iterations one operating point may spend over all strategies: no input hangs the solver. */
+export const TOTAL_ITER_BUDGET = 20000;
 
 /** How a solve may start: a neighbouring solution (warm start) or cold. */
 export interface OpStart {
@@ -55,6 +59,14 @@ export function solveWithWorkspace(ws: NewtonWorkspace, start?: OpStart): Operat
   const x = new Float64Array(n);
   let total = 0;
   const attempts: Attempts = { newtonIterations: 0, worst: [], singularRow: -1 };
+  const budget = Math.min(TOTAL_ITER_BUDGET, 20 * iterLimit + 1000);
+  const stepLimit = Math.min(iterLimit, STEP_ITER_LIMIT);
+  /** One bounded Newton run; out of budget counts as not converged. */
+  const newton = (limit: number) => {
+    const result = runNewton(ws, x, Math.max(0, Math.min(limit, budget - total)));
+    total += result.iterations;
+    return result;
+  };
 
   // 1. Plain Newton, warm or cold.
   if (start?.x && start.x.length === n) {
@@ -64,8 +76,7 @@ export function solveWithWorkspace(ws: NewtonWorkspace, start?: OpStart): Operat
     ws.devices.initialGuess();
   }
   ws.prepare(1, gminFinal);
-  let out = runNewton(ws, x, iterLimit);
-  total += out.iterations;
+  let out = newton(iterLimit);
   attempts.newtonIterations = out.iterations;
   attempts.singularRow = out.singularRow;
   attempts.worst = worstRows(ws);
@@ -80,10 +91,9 @@ export function solveWithWorkspace(ws: NewtonWorkspace, start?: OpStart): Operat
     let factor = 10;
     let ok = false;
     let haveGood = false;
-    for (let step = 0; step < MAX_STEPS; step++) {
+    for (let step = 0; step < MAX_STEPS && total < budget; step++) {
       ws.prepare(1, gmin);
-      out = runNewton(ws, x, iterLimit);
-      total += out.iterations;
+      out = newton(stepLimit);
       if (out.converged) {
         good.set(x);
         haveGood = true;
@@ -112,14 +122,12 @@ export function solveWithWorkspace(ws: NewtonWorkspace, start?: OpStart): Operat
     x.fill(0);
     ws.devices.initialGuess();
     const good = new Float64Array(n);
-    let scale = 0;
     let step = 0.1;
     let reached = -1;
-    for (let k = 0; k < MAX_STEPS * 3; k++) {
+    for (let k = 0; k < MAX_STEPS * 3 && total < budget; k++) {
       const target = reached < 0 ? 0 : Math.min(1, reached + step);
       ws.prepare(target, gminFinal);
-      out = runNewton(ws, x, iterLimit);
-      total += out.iterations;
+      out = newton(stepLimit);
       if (out.converged) {
         reached = target;
         good.set(x);
@@ -133,9 +141,7 @@ export function solveWithWorkspace(ws: NewtonWorkspace, start?: OpStart): Operat
         step /= 4;
         if (step < 1e-4) break;
       }
-      scale = target;
     }
-    void scale;
   }
   return failure(ws, layout, attempts, iterLimit, gminFinal);
 }
