@@ -278,3 +278,12 @@ describe('cross-check against mathjs lusolve', () => {
     );
   });
 });
+
+describe('singular AC systems', () => {
+  it('flags a structurally singular system instead of returning NaN', () => {
+    const sys = { size: 1, nodeIndex: new Map([['a', 0]]), branchIndex: new Map(), G: new Float64Array(1), C: new Float64Array(1), sources: new Map() };
+    const [s] = createAcSolver(sys).solve(1e3, [{ injections: new Map([['a', { re: 1, im: 0 }]]) }]);
+    expect(s.singular).toBe(true);
+    expect(s.v('a')).toEqual({ re: 0, im: 0 });
+  });
+});
