@@ -5,7 +5,7 @@
  * written in, and the top-level params of its file). Never throws; every problem is reported.
  */
 import type { BlockDef, Body, FileUnit, ModelStmt, PartStmt, ValueText } from '../parse/ast';
-import { evaluateExpression } from '../parse/expression';
+import { evaluateExpression, type NameScope } from '../parse/expression';
 import { OPTION_KEYS, PART_KINDS, rangeProblem, type Range } from '../parse/kinds';
 import type { QuantityUnit } from '../parse/quantity';
 import { didYouMean } from '../parse/suggest';
@@ -41,6 +41,33 @@ export interface Elaboration {
   blocks: BlockDef[];
 }
 
+/**
+ * Parameters of one scope layered over those of the enclosing scope, so that a block instance
+ * does not copy every top-level parameter (a netlist may have thousands of both).
+ */
+class LayeredScope implements NameScope {
+  readonly own = new Map<string, number>();
+  constructor(private readonly parent?: LayeredScope) {}
+
+  get(name: string): number | undefined {
+    const v = this.own.get(name);
+    return v !== undefined || this.own.has(name) ? v : this.parent?.get(name);
+  }
+
+  has(name: string): boolean {
+    return this.own.has(name) || (this.parent?.has(name) ?? false);
+  }
+
+  set(name: string, value: number): void {
+    this.own.set(name, value);
+  }
+
+  *keys(): IterableIterator<string> {
+    yield* this.own.keys();
+    if (this.parent) for (const k of this.parent.keys()) if (!this.own.has(k)) yield k;
+  }
+}
+
 /** One scope: the top level of a file, or one block instance. */
 interface Frame {
   file: FileUnit;
@@ -48,7 +75,7 @@ interface Frame {
   block?: BlockDef;
   /** Prefix of flattened names: '' at the top, `m1.` inside instance m1. */
   prefix: string;
-  params: Map<string, number>;
+  params: LayeredScope;
   pinMap?: Map<string, string>;
   /** The scope this body is written in (for params, models and blocks). */
   lexical?: Frame;
@@ -181,7 +208,7 @@ class Elaborator {
   fileFrame(file: FileUnit): Frame {
     let frame = this.fileFrames.get(file);
     if (!frame) {
-      frame = { file, body: file, prefix: '', params: new Map(), models: new Map(), anchor: this.options.useAnchors.get(file), chain: [] };
+      frame = { file, body: file, prefix: '', params: new LayeredScope(), models: new Map(), anchor: this.options.useAnchors.get(file), chain: [] };
       this.fileFrames.set(file, frame);
       const overrides = file.origin ? undefined : new Map(Object.entries(this.options.paramOverrides ?? {}));
       this.evaluateParams(frame, overrides);
@@ -355,7 +382,7 @@ class Elaborator {
       body: def,
       block: def,
       prefix: caller.prefix + stmt.name.text + '.',
-      params: new Map(lexical.params),
+      params: new LayeredScope(lexical.params),
       pinMap,
       lexical,
       models: new Map(),
@@ -396,7 +423,7 @@ class Elaborator {
       const lexical = def.parent ? this.firstFrame.get(def.parent) : this.fileFrame(file);
       if (!lexical) continue;
       const frame: Frame = {
-        file, body: def, block: def, prefix: `${def.name.text}.`, params: new Map(lexical.params),
+        file, body: def, block: def, prefix: `${def.name.text}.`, params: new LayeredScope(lexical.params),
         pinMap: new Map(def.pins.map((p) => [p.text, `${def.name.text}.${p.text}`])), lexical, models: new Map(), chain: [...lexical.chain, def],
       };
       this.instantiated.add(def);
@@ -448,7 +475,7 @@ export function elaborate(file: FileUnit, bag: DiagnosticBag, options: Elaborate
   const blocks = [...file.blocks, ...(options.usedBlocks.get(file)?.values() ?? [])];
   return {
     circuit: { title: file.title ?? '', nodes: [...sink.nodes], parts: sink.parts, options: circuitOptions },
-    params: top.params,
+    params: top.params.own,
     brokenNodes: e.brokenNodes,
     attemptedParts: e.attemptedParts,
     modelNames: [...top.models.keys()],

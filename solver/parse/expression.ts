@@ -175,6 +175,25 @@ export function paramMath(): MathJsInstance {
   return mathInstance;
 }
 
+/** Names visible to an expression: read-only, possibly layered (block params over top-level). */
+export interface NameScope {
+  get(name: string): number | undefined;
+  has(name: string): boolean;
+  keys(): Iterable<string>;
+}
+
+/** The scope as mathjs wants it (a Map-like), without copying it: expressions never assign. */
+function mathScope(scope: NameScope): Map<string, number> {
+  return {
+    get: (name: string) => scope.get(name),
+    has: (name: string) => scope.has(name),
+    keys: () => scope.keys(),
+    set: () => {
+      throw new Error('assignment is not allowed in an expression');
+    },
+  } as unknown as Map<string, number>;
+}
+
 export type EvaluationResult = { ok: true; value: number } | { ok: false; problems: ExpressionProblem[] };
 
 /**
@@ -183,7 +202,7 @@ export type EvaluationResult = { ok: true; value: number } | { ok: false; proble
  */
 export function evaluateExpression(
   text: string,
-  scope: ReadonlyMap<string, number>,
+  scope: NameScope,
   expectedUnit?: QuantityUnit,
   slot?: string,
 ): EvaluationResult {
@@ -216,7 +235,7 @@ export function evaluateExpression(
   if (problems.length > 0) return { ok: false, problems };
   let value: unknown;
   try {
-    value = paramMath().evaluate(rw.expr, new Map(scope));
+    value = paramMath().evaluate(rw.expr, mathScope(scope));
   } catch (err) {
     const message = err instanceof Error ? err.message : String(err);
     return { ok: false, problems: [{ code: 'bad-expression', offset: 0, length: text.length, message: `The expression cannot be evaluated: ${message}.` }] };
