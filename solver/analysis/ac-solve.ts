@@ -33,11 +33,18 @@ export function createAcSolver(system: LinearSystem): AcSolver {
       for (const ex of excitations) {
         const xr = new Float64Array(n);
         const xi = new Float64Array(n);
-        if (!singular) {
+        let bad = singular;
+        if (!bad) {
           fillExcitation(system, ex, xr, xi);
           complexLuSolve(re, im, n, pivots, xr, xi);
+          // A nearly singular matrix can still overflow: never hand out NaN or Infinity.
+          for (let i = 0; i < n && !bad; i++) if (!Number.isFinite(xr[i]) || !Number.isFinite(xi[i])) bad = true;
+          if (bad) {
+            xr.fill(0);
+            xi.fill(0);
+          }
         }
-        out.push(makeSolution(system, xr, xi, singular));
+        out.push(makeSolution(system, xr, xi, bad));
       }
       return out;
     },

@@ -4,7 +4,7 @@
  * complex MNA system.
  */
 import fc from 'fast-check';
-import { complex, lusolve, matrix, type Complex, type Matrix } from 'mathjs';
+import { add as cadd, complex, lusolve, matrix, subtract, unaryMinus, type Complex, type Matrix } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { GROUND, type Circuit } from '../circuit/types';
 import { createAcSolver, acSweep } from './ac-solve';
@@ -219,10 +219,10 @@ function referenceSolve(c: Circuit, freq: number, drives: Map<string, Complex>):
     const ri = typeof r === 'number' ? r : idx.get(r);
     const ci = typeof col === 'number' ? col : idx.get(col);
     if (ri === undefined || ci === undefined) return;
-    A[ri][ci] = A[ri][ci].add(v) as Complex;
+    A[ri][ci] = cadd(A[ri][ci], v) as Complex;
   };
   const admittance = (a: string, bb: string, y: Complex) => {
-    add(a, a, y); add(bb, bb, y); add(a, bb, y.neg()); add(bb, a, y.neg());
+    add(a, a, y); add(bb, bb, y); add(a, bb, unaryMinus(y)); add(bb, a, unaryMinus(y));
   };
   const w = 2 * Math.PI * freq;
   for (const p of c.parts) {
@@ -230,14 +230,14 @@ function referenceSolve(c: Circuit, freq: number, drives: Map<string, Complex>):
     if (p.kind === 'cap') admittance(p.a, p.b, complex(0, w * p.value));
     if (p.kind === 'vccs') {
       const g = complex(p.gm, 0);
-      add(p.from, p.cp, g); add(p.from, p.cn, g.neg()); add(p.to, p.cp, g.neg()); add(p.to, p.cn, g);
+      add(p.from, p.cp, g); add(p.from, p.cn, unaryMinus(g)); add(p.to, p.cp, unaryMinus(g)); add(p.to, p.cn, g);
     }
     if (p.kind === 'isrc') {
       const i = drives.get(p.name);
       if (i) {
         const f = idx.get(p.from); const t = idx.get(p.to);
-        if (f !== undefined) b[f] = b[f].sub(i) as Complex;
-        if (t !== undefined) b[t] = b[t].add(i) as Complex;
+        if (f !== undefined) b[f] = subtract(b[f], i) as Complex;
+        if (t !== undefined) b[t] = cadd(b[t], i) as Complex;
       }
     }
   }

@@ -190,14 +190,8 @@ export class DeviceSet {
       const vd0 = vg0 - vgd;
       const ev = evalMos(m.p, vg0, vd0, vs, vbk, m.ev);
       const ieq = ev.id - ev.dIdVg * vg0 - ev.dIdVd * vd0 - ev.dIdVs * vs - ev.dIdVb * vbk;
-      for (const [r, sign] of [[m.d, 1], [m.s, -1]] as const) {
-        if (r < 0) continue;
-        addEntry(A, n, r, m.g, sign * ev.dIdVg);
-        addEntry(A, n, r, m.d, sign * ev.dIdVd);
-        addEntry(A, n, r, m.s, sign * ev.dIdVs);
-        addEntry(A, n, r, m.b, sign * ev.dIdVb);
-        b[r] -= sign * ieq;
-      }
+      stampMosRow(A, b, n, m, m.d, 1, ieq);
+      stampMosRow(A, b, n, m, m.s, -1, ieq);
     }
 
     for (const d of this.diodes) {
@@ -219,6 +213,17 @@ export class DeviceSet {
     }
     return limited;
   }
+}
+
+/** Stamps ±(drain current) into row r: +1 for the drain, −1 for the source. */
+function stampMosRow(A: Float64Array, b: Float64Array, n: number, m: MosInstance, r: number, sign: 1 | -1, ieq: number): void {
+  if (r < 0) return;
+  const ev = m.ev;
+  addEntry(A, n, r, m.g, sign * ev.dIdVg);
+  addEntry(A, n, r, m.d, sign * ev.dIdVd);
+  addEntry(A, n, r, m.s, sign * ev.dIdVs);
+  addEntry(A, n, r, m.b, sign * ev.dIdVb);
+  b[r] -= sign * ieq;
 }
 
 /**

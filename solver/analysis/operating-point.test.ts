@@ -163,6 +163,11 @@ describe('failures are diagnostics, never exceptions', () => {
     expect(r.errors[0].message).toContain('v1');
   });
 
+  it('solves a circuit without nodes to an empty report', () => {
+    const r = solveOperatingPoint(circuitOf([])) as OperatingPoint;
+    expect(r.report).toEqual({ nodes: {}, sources: {}, parts: {}, devices: {} });
+  });
+
   it('keeps a zero-ohm resistor finite', () => {
     const c = circuitOf([
       { kind: 'vsrc', name: 'v1', p: 'a', n: 'gnd', dc: 1 },
