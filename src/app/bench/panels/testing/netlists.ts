@@ -79,3 +79,14 @@ vcc: vsrc(vcc, gnd) 10 V
 r1: res(vcc, out) 4.7 meg
 q1: npx(c=out, b=vcc, e=gnd)
 `;
+
+/** Both devices in their regions but short of headroom: VCE ≈ 0.24 V; VDS ≈ 0.44 V with Vov = 0.4 V. */
+export const LOW_HEADROOM = `title  Low headroom
+vcc: vsrc(vcc, gnd) 5
+vb: vsrc(b, gnd) 0.62
+rc: res(vcc, c) 1.85M
+q1: npn(c=c, b=b, e=gnd)
+vg: vsrc(g, gnd) 0.9
+rd: res(vcc, d) 57k
+m1: nmos(d=d, g=g, s=gnd) w=10u l=1u
+`;
