@@ -15,7 +15,7 @@ import { evaluateModel } from './elaborate-model';
 import { DEFAULT_OPTIONS, GROUND, type Circuit, type Part, type PartKind } from './types';
 
 /** Flattened parts beyond this are refused: a netlist this big is a runaway block expansion. */
-export const MAX_PARTS = 20_000;
+export const MAX_PARTS = 100_000;
 /** Deepest chain of block instances. */
 export const MAX_INSTANCE_DEPTH = 64;
 

@@ -127,4 +127,18 @@ describe('parseNetlist never throws', () => {
     ];
     for (const text of cases) checkResult(parseNetlist(text, { resolveUse }));
   });
+
+  it('on a huge number of lines (a parameter chain, a resistor ladder)', () => {
+    const params = ['param p0 = 1'];
+    for (let k = 1; k < 5000; k++) params.push(`param p${k} = p${k - 1}+1`);
+    const chain = parseNetlist(params.join('\n'));
+    checkResult(chain);
+    expect(chain.requests.params.p4999).toBe(5000);
+    const ladder = ['v0: vsrc(n0, gnd) 1'];
+    for (let k = 0; k < 20000; k++) ladder.push(`r${k}: res(n${k}, n${k + 1}) 1k`);
+    ladder.push('rl: res(n20000, gnd) 1k');
+    const r = parseNetlist(ladder.join('\n'));
+    checkResult(r);
+    expect(r.circuit?.nodes).toHaveLength(20001);
+  });
 });
