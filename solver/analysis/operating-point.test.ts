@@ -163,6 +163,11 @@ describe('failures are diagnostics, never exceptions', () => {
     expect(r.errors[0].message).toContain('v1');
   });
 
+  it('refuses a temperature at or below absolute zero', () => {
+    const c = circuitOf([{ kind: 'diode', name: 'd1', a: 'a', k: 'gnd', model: diodeModel(), area: 1 }], { temp: -273.15 });
+    expect((solveOperatingPoint(c) as OpFailure).errors[0].code).toBe('bad-temperature');
+  });
+
   it('solves a circuit without nodes to an empty report', () => {
     const r = solveOperatingPoint(circuitOf([])) as OperatingPoint;
     expect(r.report).toEqual({ nodes: {}, sources: {}, parts: {}, devices: {} });

@@ -223,6 +223,10 @@ function locOfRow(circuit: Circuit, name: string | undefined): SourceLoc {
 
 /** Rejects non-finite part values up front: they would poison every iterate. */
 function findBadValue(circuit: Circuit): OpFailure | null {
+  const t = circuit.options.temp;
+  if (!Number.isFinite(t) || !(t > -273.15)) {
+    return { failed: true, errors: [error('bad-temperature', { line: 1, col: 1 }, `The temperature ${t} °C is not above absolute zero, so the thermal voltage is undefined.`, 'set option temp to a temperature above −273.15 °C')] };
+  }
   for (const p of circuit.parts) {
     const values: number[] = [];
     switch (p.kind) {
