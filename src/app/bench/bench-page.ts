@@ -16,7 +16,10 @@ import { ShortcutsHelp } from './editor/shortcuts-help';
 import { EXAMPLES, exampleById, type Example } from './examples';
 import { DraftsDialog, type DraftsDialogData, type DraftsDialogResult } from './files/drafts-dialog';
 import { FileBar } from './files/file-bar';
-import { PanelPlaceholder } from './panel-placeholder';
+import { BiasPanel } from './panels/bias-panel';
+import { ChecksPanel } from './panels/checks-panel';
+import { MeasuresPanel } from './panels/measures-panel';
+import { ModesPanel } from './panels/modes-panel';
 import { ResponsePanel } from './panels/response-panel';
 import { ResultsSummary } from './results-summary';
 import { SolverClient } from './solver-client';
@@ -26,7 +29,7 @@ export const PAINTED_MARK = 'nw-painted';
 
 @Component({
   selector: 'nw-bench-page',
-  imports: [NetlistEditor, ProblemsList, FileBar, ResultsSummary, Cautions, MatTabsModule, MatSnackBarModule, PanelPlaceholder, ResponsePanel],
+  imports: [NetlistEditor, ProblemsList, FileBar, ResultsSummary, Cautions, MatTabsModule, MatSnackBarModule, BiasPanel, ResponsePanel, ModesPanel, ChecksPanel, MeasuresPanel],
   providers: [SolverClient, BenchStore],
   changeDetection: ChangeDetectionStrategy.OnPush,
   host: { '(document:keydown)': 'onKey($event)' },
@@ -47,20 +50,24 @@ export const PAINTED_MARK = 'nw-painted';
           (cancel)="client.cancel()" />
         <mat-tab-group class="panels" [class.stale]="store.stale()" animationDuration="0ms" mat-stretch-tabs="false" mat-align-tabs="start">
           <mat-tab label="Bias">
-            <ng-template matTabContent><div class="panel"><nw-panel-placeholder name="Bias" [result]="store.shown()" /></div></ng-template>
+            <ng-template matTabContent><div class="panel"><nw-bias-panel [result]="store.shown()" /></div></ng-template>
           </mat-tab>
           <mat-tab label="Response">
             <ng-template matTabContent><div class="panel"><nw-response-panel [result]="store.shown()" /></div></ng-template>
           </mat-tab>
           <mat-tab label="Modes">
-            <ng-template matTabContent><div class="panel"><nw-panel-placeholder name="Modes" [result]="store.shown()" /></div></ng-template>
+            <ng-template matTabContent><div class="panel"><nw-modes-panel [result]="store.shown()" /></div></ng-template>
           </mat-tab>
           <mat-tab>
             <ng-template mat-tab-label>
               Checks &amp; measures
               @if (failedChecks() > 0) { <span class="badge fail" [attr.aria-label]="failedChecks() + ' failing'">{{ failedChecks() }} fail</span> }
             </ng-template>
-            <ng-template matTabContent><div class="panel"><nw-panel-placeholder name="Checks & measures" [result]="store.shown()" /></div></ng-template>
+            <ng-template matTabContent><div class="panel">
+              <nw-checks-panel [result]="store.shown()" [netlist]="store.shownText()" (lineSelected)="store.selectLine($event)" />
+              <h2 class="sub">Measures</h2>
+              <nw-measures-panel [result]="store.shown()" [netlist]="store.shownText()" (lineSelected)="store.selectLine($event)" />
+            </div></ng-template>
           </mat-tab>
         </mat-tab-group>
         <nw-cautions class="caution" />
@@ -82,6 +89,7 @@ export const PAINTED_MARK = 'nw-painted';
     :host ::ng-deep .panels .mat-mdc-tab-body-content { overflow: auto; }
     .badge { margin-left: 6px; padding: 0 6px; border-radius: 8px; font-size: 0.75rem; font-weight: 700; }
     .badge.fail { background: #f7d9d6; color: #7a1812; }
+    .sub { font: var(--mat-sys-title-small); margin: 18px 0 6px; color: var(--mat-sys-on-surface-variant); }
     .caution { display: block; flex: none; }
     .caution ::ng-deep .caution { margin-top: 8px; padding: 6px 10px; font-size: 0.8125rem; }
   `,

@@ -12,7 +12,7 @@ import { Drafts, titleOf, UNTITLED, type Draft } from '../core/drafts';
 import type { EditorDocument, RevealRequest } from './editor/netlist-editor';
 import type { Example } from './examples';
 import { SolverClient } from './solver-client';
-import { NO_NAMES } from './solver-protocol';
+import { NO_NAMES, type SolveReply } from './solver-protocol';
 
 /** Quiet time after the last edit before the draft is written. */
 export const AUTOSAVE_MS = 800;
@@ -48,23 +48,26 @@ export class BenchStore {
   readonly names = computed(() => this.client.reply()?.names ?? NO_NAMES);
   readonly solveMs = computed(() => this.client.reply()?.solveMs);
 
-  /** The newest result that solved without errors (reset when another netlist is opened). */
-  private readonly lastClean = linkedSignal<SolveResult | undefined, SolveResult | undefined>({
-    source: this.latest,
-    computation: (latest, previous) => (latest && latest.errors.length === 0 ? latest : previous?.value),
+  /** The newest reply that solved without errors (reset when another netlist is opened). */
+  private readonly lastClean = linkedSignal<SolveReply | undefined, SolveReply | undefined>({
+    source: this.client.reply,
+    computation: (reply, previous) => (reply && reply.result.errors.length === 0 ? reply : previous?.value),
+  });
+  private readonly shownReply = computed<SolveReply | undefined>(() => {
+    const reply = this.client.reply();
+    if (!reply || reply.result.errors.length === 0) return reply;
+    return this.lastClean() ?? reply;
   });
   /**
    * What the panels show: the newest result when it solved cleanly; while the text has errors
    * (half-typed words included) the last clean one, flagged `stale`, so the panels do not blink.
    */
-  readonly shown = computed<SolveResult | undefined>(() => {
-    const latest = this.latest();
-    if (!latest || latest.errors.length === 0) return latest;
-    return this.lastClean() ?? latest;
-  });
+  readonly shown = computed<SolveResult | undefined>(() => this.shownReply()?.result);
+  /** The text of the shown result (its measure and check lines). */
+  readonly shownText = computed(() => this.shownReply()?.text ?? '');
   readonly stale = computed(() => {
-    const latest = this.latest();
-    return !!latest && latest.errors.length > 0 && this.shown() !== latest;
+    const reply = this.client.reply();
+    return !!reply && reply.result.errors.length > 0 && this.shownReply() !== reply;
   });
 
   private nextKey = 1;

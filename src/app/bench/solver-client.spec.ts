@@ -24,7 +24,7 @@ class FakeWorker implements WorkerLike {
   answer(request = this.sent[this.sent.length - 1]): void {
     if (this.terminated) return;
     const result = { title: request.text, temp_c: 27, measures: {}, checks: [], warnings: [], errors: [] } as SolveResult;
-    this.onmessage?.({ data: { type: 'solved', id: request.id, result, names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>);
+    this.onmessage?.({ data: { type: 'solved', id: request.id, result, text: request.text, names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>);
   }
 }
 
@@ -105,7 +105,7 @@ describe('SolverClient', () => {
     client.solveNow('two');
     const w2 = live()[0];
     // A reply carrying the old id (as a worker that was not terminated might send) is dropped.
-    w2.onmessage?.({ data: { type: 'solved', id: firstRequest.id, result: { title: 'stale' } as SolveResult, names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>);
+    w2.onmessage?.({ data: { type: 'solved', id: firstRequest.id, result: { title: 'stale' } as SolveResult, text: 'one', names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>);
     expect(client.reply()?.result.title).toBe('one');
     w2.answer();
     expect(client.reply()?.result.title).toBe('two');

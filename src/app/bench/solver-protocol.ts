@@ -34,6 +34,8 @@ export interface SolveReply {
   type: 'solved';
   id: number;
   result: SolveResult;
+  /** The text solved (echoed, so a panel can read measure lines from the very text of its result). */
+  text: string;
   names: NetlistNames;
   /** Wall time of the solve inside the worker, ms. */
   solveMs: number;

@@ -18,7 +18,7 @@ scope.addEventListener('message', (event: MessageEvent<SolveRequest>) => {
   if (request?.type !== 'solve') return;
   const started = performance.now();
   const result = solveNetlist(request.text);
-  const reply: SolveReply = { type: 'solved', id: request.id, result, names: namesOf(request.text), solveMs: performance.now() - started };
+  const reply: SolveReply = { type: 'solved', id: request.id, result, text: request.text, names: namesOf(request.text), solveMs: performance.now() - started };
   scope.postMessage(reply);
 });
 
