@@ -98,7 +98,8 @@ const PART_COLUMNS = branchColumns('a→b');
     .filter-row { display: flex; align-items: center; gap: 8px; flex-wrap: wrap; }
     .filter { width: 300px; max-width: 100%; --mat-form-field-container-height: 40px; --mat-form-field-container-vertical-padding: 8px; }
     .count { font-size: 0.8125rem; color: var(--mat-sys-on-surface-variant); }
-    .pair { display: grid; grid-template-columns: repeat(auto-fit, minmax(260px, 1fr)); gap: 0 16px; }
+    .pair { display: block; }
+    .pair section:first-child nw-op-table { max-width: 360px; }
     .note { font-size: 0.8125rem; color: var(--mat-sys-on-surface-variant); margin: 4px 0 0; }
   `],
 })

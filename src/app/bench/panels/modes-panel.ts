@@ -73,9 +73,8 @@ interface Figure {
       </div>
       <dl class="defs">
         <dt>Drive</dt>
-        <dd>vid = {{ names().inP }} − {{ names().inN }}, &nbsp; vic = ({{ names().inP }} + {{ names().inN }})/2.
-          The bench drives {{ names().inP }} and {{ names().inN }} itself: +½ and −½ for the differential mode, +1 and +1 for the
-          common mode, whatever their own ac= values say.</dd>
+        <dd>vid = {{ names().inP }} − {{ names().inN }}, &nbsp; vic = ({{ names().inP }} + {{ names().inN }})/2 &nbsp;·&nbsp;
+          driven by the bench: +½/−½ differential, +1/+1 common mode (their own ac= is ignored).</dd>
         <dt>Output</dt>
         @if (names().outN) {
           <dd>vod = v({{ names().outP }}) − v({{ names().outN }}), &nbsp; voc = (v({{ names().outP }}) + v({{ names().outN }}))/2.</dd>
@@ -86,7 +85,7 @@ interface Figure {
       @if (cmrrSeries(); as series) {
         <h3 class="plot-title">CMRR over frequency</h3>
         <nw-bode-plot [freqHz]="freqHz()" [series]="series" [showPhase]="false" [markers]="cmrrMarkers()"
-                      magnitudeLabel="CMRR (dB)" ariaLabel="CMRR over frequency" [height]="230" />
+                      magnitudeLabel="CMRR (dB)" ariaLabel="CMRR over frequency" [height]="210" />
       } @else {
         <p class="note">Add <code>analyze ac from 10 Hz to 1 GHz per decade 20</code> to see how CMRR falls with frequency.</p>
       }
@@ -94,16 +93,16 @@ interface Figure {
   `,
   styles: [STATUS_STYLES, `
     :host { display: block; }
-    .context { display: flex; flex-wrap: wrap; gap: 12px; align-items: center; margin: 0 0 10px; font-size: 0.875rem; }
-    .figures { display: grid; grid-template-columns: repeat(auto-fit, minmax(150px, 1fr)); gap: 10px; margin-bottom: 12px; }
-    .figure { padding: 10px 12px; border-radius: 8px; background: var(--mat-sys-surface-container-lowest);
+    .context { display: flex; flex-wrap: wrap; gap: 12px; align-items: center; margin: 0 0 8px; font-size: 0.875rem; }
+    .figures { display: grid; grid-template-columns: repeat(auto-fit, minmax(150px, 1fr)); gap: 8px; margin-bottom: 8px; }
+    .figure { padding: 6px 10px 8px; border-radius: 8px; background: var(--mat-sys-surface-container-lowest);
       border: 1px solid var(--mat-sys-outline-variant); }
     .figure h3 { margin: 0; font-size: 0.875rem; font-weight: 700; color: var(--mat-sys-on-surface-variant); }
     .figure p { margin: 0; }
-    .big { font-size: 1.75rem; font-weight: 600; line-height: 1.2; color: var(--mat-sys-on-surface); }
+    .big { font-size: 1.5rem; font-weight: 600; line-height: 1.2; color: var(--mat-sys-on-surface); }
     .sub { display: flex; flex-wrap: wrap; gap: 2px 10px; font-size: 0.875rem; color: var(--mat-sys-on-surface); }
     .def { margin-top: 4px !important; font-size: 0.8125rem; color: var(--mat-sys-on-surface-variant); }
-    .defs { display: grid; grid-template-columns: max-content 1fr; gap: 4px 12px; margin: 0 0 12px; font-size: 0.875rem; }
+    .defs { display: grid; grid-template-columns: max-content 1fr; gap: 2px 12px; margin: 0 0 8px; font-size: 0.8125rem; }
     .defs dt { font-weight: 700; }
     .defs dd { margin: 0; }
     .plot-title { margin: 0 0 4px; font-size: 0.9375rem; font-weight: 700; }

@@ -154,3 +154,18 @@ describe('ResponsePanel', () => {
     expect(el.querySelector('svg.plot')).toBeNull();
   });
 });
+
+describe('ResponsePanel curve styles', () => {
+  it('never draws two shown curves alike, and the legend swatch matches the plotted curve', async () => {
+    const { fixture, el } = await render(pair);
+    for (const key of ['ac(ina)', 'ac(outa)', 'ac(outb)', 'ac(tail)']) fixture.componentInstance.toggle(key);
+    await fixture.whenStable();
+    const paths = [...el.querySelectorAll('.panel-mag path.curve')];
+    expect(paths.length).toBe(7);
+    const looks = paths.map((p) => `${p.getAttribute('stroke')} ${p.getAttribute('stroke-dasharray') ?? ''}`);
+    expect(new Set(looks).size).toBe(7);
+    const outa = el.querySelector('.legend button[data-key="ac(outa)"] line')!;
+    const plotted = el.querySelector('.panel-mag path.curve[data-key="ac(outa)"]')!;
+    expect(outa.getAttribute('stroke')).toBe(plotted.getAttribute('stroke'));
+  });
+});

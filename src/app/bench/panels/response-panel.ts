@@ -3,7 +3,7 @@ import { MatButtonModule } from '@angular/material/button';
 import type { SolveResult } from '../../../../solver/result';
 import { BodePlot } from './plot/bode-plot';
 import { curveMarkers } from './plot/curve-markers';
-import { curveStyle } from './plot/palette';
+import { CURVE_STYLES, curveStyle, type CurveStyle } from './plot/palette';
 import { curvesCsv, downloadBlob, fileStem, svgToPng } from './plot/plot-export';
 import type { PlotSeries } from './plot/plot-geometry';
 import { PanelNotice, panelNotice } from './panel-notice';
@@ -13,6 +13,10 @@ const PORTS_CURVES = ['adm', 'acm', 'cmrr'];
 
 /** Below this everywhere a curve is a node with no ac response (the engine reports 0 as −300 dB). */
 const SILENT_DB = -250;
+
+function isSilent(db: readonly number[]): boolean {
+  return db.every((v) => v <= SILENT_DB);
+}
 
 interface CurveEntry {
   key: string;
@@ -34,12 +38,12 @@ interface CurveEntry {
       <nw-panel-notice [notice]="n" />
     } @else {
       <div class="toolbar">
-        <label class="marks">Mark −3 dB and 0 dB on
+        <label class="marks">Marks on
           <select [value]="selectedKey()" (change)="selectCurve($any($event.target).value)" aria-label="Curve whose −3 dB and 0 dB points are marked">
             @for (e of shown(); track e.key) { <option [value]="e.key" [selected]="e.key === selectedKey()">{{ e.key }}</option> }
           </select>
         </label>
-        <span class="spacer"></span>
+        <span class="status" aria-live="polite">{{ status() }}</span>
         <button mat-stroked-button type="button" (click)="plot()?.resetZoom()" [disabled]="!plot()?.zoomed()" aria-label="Reset zoom">Reset zoom</button>
         <span class="export" role="group" aria-label="Export the plot">
           <button mat-button type="button" (click)="exportSvg()" aria-label="Export the plot as SVG">SVG</button>
@@ -52,40 +56,39 @@ interface CurveEntry {
           <button type="button" class="chip" [class.on]="isVisible(e.key)" [attr.aria-pressed]="isVisible(e.key)"
                   [attr.data-key]="e.key" (click)="toggle(e.key)"
                   [attr.aria-label]="(isVisible(e.key) ? 'Hide ' : 'Show ') + e.key">
-            <svg width="26" height="10" aria-hidden="true"><line x1="1" y1="5" x2="25" y2="5" [attr.stroke]="e.series.style.color" stroke-width="2.5" [attr.stroke-dasharray]="e.series.style.dash || null" /></svg>
-            <span class="tick" aria-hidden="true">{{ isVisible(e.key) ? '✓' : '' }}</span>{{ e.key }}
+            <svg width="20" height="10" aria-hidden="true"><line x1="1" y1="5" x2="19" y2="5" [attr.stroke]="styleOf(e).color" stroke-width="2.5" [attr.stroke-dasharray]="styleOf(e).dash || null" /></svg>
+            @if (isVisible(e.key)) { <span class="tick" aria-hidden="true">✓</span> }{{ e.key }}
           </button>
         }
+        @if (silent().length > 0) {
+          <span class="silent">No ac response at {{ silent().join(', ') }}.</span>
+        }
       </div>
-      @if (silent().length > 0) {
-        <p class="silent">No ac response at {{ silent().join(', ') }}.</p>
-      }
       @if (shown().length > 0) {
-        <nw-bode-plot [freqHz]="freqHz()" [series]="shownSeries()" [markers]="markers()"
+        <nw-bode-plot [freqHz]="freqHz()" [series]="shownSeries()" [markers]="markers()" [height]="330"
                       [ariaLabel]="'Bode plot of ' + shownKeys()" />
       } @else {
         <p class="empty">Choose a curve above to plot it.</p>
       }
-      <p class="status" aria-live="polite">{{ status() }}</p>
     }
   `,
   styles: `
     :host { display: block; }
-    .toolbar { display: flex; flex-wrap: wrap; align-items: center; gap: 8px; margin-bottom: 6px; }
+    .toolbar { display: flex; flex-wrap: wrap; align-items: center; gap: 6px; margin-bottom: 6px;
+      --mat-button-outlined-container-height: 32px; --mat-button-text-container-height: 32px; }
     .marks { font-size: 0.875rem; color: var(--mat-sys-on-surface-variant); display: inline-flex; align-items: center; gap: 6px; }
     select { font: inherit; color: var(--mat-sys-on-surface); background: var(--mat-sys-surface-container-lowest);
       border: 1px solid var(--mat-sys-outline); border-radius: 4px; padding: 3px 6px; }
-    .spacer { flex: 1; }
     .export { display: inline-flex; gap: 2px; }
-    .legend { display: flex; flex-wrap: wrap; gap: 6px; margin: 0 0 8px; }
-    .chip { display: inline-flex; align-items: center; gap: 4px; font: inherit; font-size: 0.875rem; cursor: pointer;
-      padding: 2px 10px 2px 6px; border-radius: 14px; border: 1px solid var(--mat-sys-outline-variant);
+    .legend { display: flex; flex-wrap: wrap; gap: 5px; margin: 0 0 6px; }
+    .chip { display: inline-flex; align-items: center; gap: 3px; font: inherit; font-size: 0.8125rem; cursor: pointer;
+      padding: 1px 9px 1px 6px; border-radius: 14px; border: 1px solid var(--mat-sys-outline-variant);
       background: transparent; color: var(--mat-sys-on-surface-variant); }
     .chip.on { background: var(--mat-sys-surface-container-high); color: var(--mat-sys-on-surface); border-color: var(--mat-sys-outline); font-weight: 600; }
     .chip:not(.on) svg { opacity: 0.45; }
-    .chip .tick { display: inline-block; width: 0.8em; }
-    .silent, .empty, .status { font-size: 0.8125rem; color: var(--mat-sys-on-surface-variant); margin: 0 0 6px; }
-    .status { min-height: 1.2em; margin-top: 4px; }
+    .legend { align-items: center; }
+    .silent, .empty, .status { font-size: 0.8125rem; color: var(--mat-sys-on-surface-variant); margin: 0; }
+    .status { flex: 1; text-align: right; }
   `,
 })
 export class ResponsePanel {
@@ -93,6 +96,7 @@ export class ResponsePanel {
 
   readonly plot = viewChild(BodePlot);
   readonly status = signal('');
+  private statusTimer: ReturnType<typeof setTimeout> | undefined;
   /** The user's own show/hide choices, kept across re-solves while the curve names persist. */
   private readonly choices = signal<ReadonlyMap<string, boolean>>(new Map());
   private readonly chosenMarkKey = signal<string | undefined>(undefined);
@@ -105,20 +109,28 @@ export class ResponsePanel {
 
   readonly freqHz = computed(() => this.result()?.ac?.freq_hz ?? []);
 
-  /** Every curve of the sweep with its fixed style (colour and dash follow the order, not the toggles). */
-  private readonly entries = computed<CurveEntry[]>(() => {
+  /** Every curve of the sweep in display order: the ports figures first, then the nodes. */
+  private readonly entries = computed<Array<Omit<CurveEntry, 'series'> & { series: Omit<PlotSeries, 'style'> }>>(() => {
     const curves = this.result()?.ac?.curves ?? {};
     const keys = [...PORTS_CURVES.filter((k) => k in curves), ...Object.keys(curves).filter((k) => !PORTS_CURVES.includes(k))];
-    return keys.map((key, index) => ({
+    return keys.map((key) => ({
       key,
       group: PORTS_CURVES.includes(key) ? 'ports' : 'nodes',
-      series: { key, label: key, db: curves[key].db, phase_deg: curves[key].phase_deg, style: curveStyle(index) },
+      series: { key, label: key, db: curves[key].db, phase_deg: curves[key].phase_deg },
     }));
   });
 
   /** Node curves that are zero over the whole sweep (supplies, grounded inputs): named, not plotted. */
-  readonly silent = computed(() => this.entries().filter((e) => e.series.db.every((v) => v <= SILENT_DB)).map((e) => e.key.replace(/^ac\((.*)\)$/, '$1')));
-  readonly available = computed(() => this.entries().filter((e) => !e.series.db.every((v) => v <= SILENT_DB)));
+  readonly silent = computed(() => this.entries().filter((e) => isSilent(e.series.db)).map((e) => e.key.replace(/^ac\((.*)\)$/, '$1')));
+
+  /**
+   * The curves that can be plotted, each with a style fixed by its place in this list (so toggling
+   * one never recolours another); only past the palette's length can two shown curves collide,
+   * and then the later one takes the next free style.
+   */
+  readonly available = computed<CurveEntry[]>(() => this.entries()
+    .filter((e) => !isSilent(e.series.db))
+    .map((e, index) => ({ ...e, series: { ...e.series, style: curveStyle(index) } })));
 
   /** Shown by default: the ports curves when there are ports, else the first few node curves. */
   private readonly defaults = computed(() => {
@@ -127,7 +139,16 @@ export class ResponsePanel {
     return new Set((ports.length > 0 ? ports : all.slice(0, 3)).map((e) => e.key));
   });
 
-  readonly shown = computed(() => this.available().filter((e) => this.isVisible(e.key)));
+  readonly shown = computed(() => {
+    const used = new Set<string>();
+    return this.available().filter((e) => this.isVisible(e.key)).map((e) => {
+      let style = e.series.style;
+      for (let k = 0; used.has(style.color + style.dash) && k < CURVE_STYLES.length; k++) style = CURVE_STYLES[k];
+      used.add(style.color + style.dash);
+      return style === e.series.style ? e : { ...e, series: { ...e.series, style } };
+    });
+  });
+  private readonly shownStyles = computed(() => new Map(this.shown().map((e) => [e.key, e.series.style])));
   readonly shownSeries = computed(() => this.shown().map((e) => e.series));
   readonly shownKeys = computed(() => this.shown().map((e) => e.key).join(', '));
 
@@ -143,6 +164,11 @@ export class ResponsePanel {
     const curve = entry ? this.result()?.ac?.curves[entry.key] : undefined;
     return entry && curve ? curveMarkers(entry.key, this.freqHz(), curve) : [];
   });
+
+  /** The style a curve is drawn in (the legend's swatch matches the plot). */
+  styleOf(e: CurveEntry): CurveStyle {
+    return this.shownStyles().get(e.key) ?? e.series.style;
+  }
 
   isVisible(key: string): boolean {
     return this.choices().get(key) ?? this.defaults().has(key);
@@ -188,5 +214,7 @@ export class ResponsePanel {
     const name = `${fileStem(this.result()?.title)}-response.${ext}`;
     downloadBlob(blob, name);
     this.status.set(`Saved ${name}.`);
+    clearTimeout(this.statusTimer);
+    this.statusTimer = setTimeout(() => this.status.set(''), 5000);
   }
 }

@@ -152,10 +152,10 @@ export function drawCursor(svgEl: SVGSVGElement, geo: PlotGeometry, freqHz: read
         .attr('fill', s.style.color).attr('stroke', PLOT_COLORS.paper).attr('stroke-width', 1.5);
     }
   }
-  // The frequency under the cursor, on the axis.
+  // The frequency under the cursor, just above the frequency axis (away from the marker labels).
   const label = formatTick(Number(freqHz[index].toPrecision(3)), 'Hz');
   const onRight = x > geo.innerWidth - 60;
-  g.append('text').attr('x', x + (onRight ? -4 : 4)).attr('y', geo.mag.top + 12).attr('text-anchor', onRight ? 'end' : 'start')
+  g.append('text').attr('class', 'cursor-freq').attr('x', x + (onRight ? -4 : 4)).attr('y', bottom - 6).attr('text-anchor', onRight ? 'end' : 'start')
     .attr('fill', PLOT_COLORS.cursor).attr('font-weight', 600)
     .attr('stroke', PLOT_COLORS.paper).attr('stroke-width', 4).attr('paint-order', 'stroke').text(label);
 }

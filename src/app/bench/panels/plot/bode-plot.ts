@@ -51,9 +51,11 @@ let helpCounter = 0;
          (pointercancel)="drag.set(undefined)" (wheel)="onWheel($event)" (dblclick)="resetZoom()">
       <svg #svg class="plot" aria-hidden="true"></svg>
     </div>
-    <p class="help" [id]="helpId">
-      Drag a box to zoom · wheel to zoom · Shift+drag to pan · double-click to reset.
-      Keys: ←/→ cursor, PgUp/PgDn jump, +/− zoom, Shift+←/→ pan, 0 reset.
+    <p class="help" aria-hidden="true">Drag a box or turn the wheel to zoom, Shift+drag to pan, double-click to reset; focused: ← → cursor, + − zoom, 0 reset.</p>
+    <p class="visually-hidden" [id]="helpId">
+      Left and right arrows move the cursor one point, Page Up and Page Down a decade, Home and End to the ends;
+      plus and minus zoom around the cursor, Shift with the arrows pans, 0 or Escape resets the zoom.
+      With a mouse: drag a box to zoom, turn the wheel to zoom, Shift+drag to pan, double-click to reset.
     </p>
   `,
   styles: `
@@ -68,7 +70,8 @@ let helpCounter = 0;
     .surface { position: relative; cursor: crosshair; touch-action: none; border-radius: 4px; user-select: none; }
     .surface:focus-visible { outline: 2px solid var(--mat-sys-tertiary); outline-offset: 2px; }
     .plot { display: block; width: 100%; }
-    .help { margin: 4px 0 0; font-size: 0.75rem; color: var(--mat-sys-on-surface-variant); }
+    .help { margin: 2px 0 0; font-size: 0.75rem; color: var(--mat-sys-on-surface-variant); }
+    .visually-hidden { position: absolute; width: 1px; height: 1px; overflow: hidden; clip: rect(0 0 0 0); white-space: nowrap; }
   `,
 })
 export class BodePlot {

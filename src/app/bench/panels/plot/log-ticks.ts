@@ -17,7 +17,7 @@ export function logTicks(lo: number, hi: number, maxLabels = 10): AxisTicks {
   const first = Math.floor(Math.log10(lo));
   const last = Math.ceil(Math.log10(hi));
   if (decades < 0.5) return linearTicks(lo, hi, Math.max(3, Math.min(maxLabels, 6)));
-  const labelled = decades < 1.6 ? [1, 2, 5] : [1];
+  const labelled = decades < 2.5 ? [1, 2, 5] : [1];
   const major: number[] = [];
   const minor: number[] = [];
   for (let e = first; e <= last; e++) {
