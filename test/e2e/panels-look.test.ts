@@ -2,7 +2,7 @@
  * The result panels in a real browser: the Bode plot's cursor, zoom and exports, the bias flags,
  * the modes figures and the checks — with screenshots in test-results/ to look at.
  */
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
@@ -111,6 +111,13 @@ describe('the result panels', () => {
     await reset.click();
     await expect.poll(() => plot.locator('.x-labels text').first().textContent()).toBe('10 Hz');
 
+    // The wheel zooms around the pointer; a double-click resets.
+    await page.mouse.move(box.x + box.width * 0.6, box.y + 60);
+    await page.mouse.wheel(0, -300);
+    await expect.poll(() => reset.isEnabled()).toBe(true);
+    await page.mouse.dblclick(box.x + box.width * 0.6, box.y + 60);
+    await expect.poll(() => reset.isEnabled()).toBe(false);
+
     // Turn on a node curve from the legend.
     await page.getByRole('button', { name: 'Show ac(outa)' }).click();
     await expect.poll(() => plot.locator('path.curve[data-key="ac(outa)"]').count()).toBe(2);
@@ -129,6 +136,7 @@ describe('the result panels', () => {
 
     const [png] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export the plot as PNG' }).click()]);
     const pngBytes = readFileSync((await png.path())!);
+    writeFileSync(join(RESULTS_DIR, 'panels-export.png'), pngBytes);
     // PNG signature, then the IHDR width: twice the plot's CSS width.
     expect(pngBytes.subarray(1, 4).toString('latin1')).toBe('PNG');
     expect(pngBytes.readUInt32BE(16)).toBe(Math.round(box.width) * 2);

@@ -144,7 +144,7 @@ export class ModesPanel {
   readonly cmrrSeries = computed<PlotSeries[] | undefined>(() => {
     const curve = this.result()?.ac?.curves['cmrr'];
     if (!curve || this.freqHz().length < 2) return undefined;
-    return [{ key: 'cmrr', label: 'CMRR', db: curve.db, phase_deg: curve.phase_deg, style: curveStyle(2) }];
+    return [{ key: 'cmrr', label: 'CMRR', db: curve.db, phase_deg: curve.phase_deg, style: { color: curveStyle(2).color, dash: '' } }];
   });
 
   /** The CMRR corner: where the common-mode rejection has fallen 3 dB from its low-frequency value. */

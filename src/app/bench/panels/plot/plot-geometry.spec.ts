@@ -57,6 +57,13 @@ describe('plot geometry', () => {
     expect(z.visible).toEqual([0, 40]);
   });
 
+  it('keeps only the part of an old zoom that overlaps a new sweep', () => {
+    const g = layoutPlot({ width: 700, height: 360, freqHz: sweep, series, showPhase: true, xDomain: [1e8, 1e11] });
+    expect(g.x.domain()).toEqual([1e8, sweep[160]]);
+    const outside = layoutPlot({ width: 700, height: 360, freqHz: sweep, series, showPhase: true, xDomain: [1e10, 1e11] });
+    expect(outside.x.domain()).toEqual([10, sweep[160]]);
+  });
+
   it('finds the nearest sample in log frequency', () => {
     expect(nearestIndex(sweep, 100, [0, 160])).toBe(20);
     expect(nearestIndex(sweep, 1.05e3, [0, 160])).toBe(40);

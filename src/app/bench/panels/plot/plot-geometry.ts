@@ -75,7 +75,9 @@ export function layoutPlot(input: LayoutInput): PlotGeometry {
     : undefined;
 
   const full = fullDomain(freqHz);
-  const xDomain = input.xDomain ?? full;
+  // A zoom kept from an earlier sweep may lie partly outside this one: keep what overlaps.
+  const kept = input.xDomain ? clampDomain(input.xDomain, full) : undefined;
+  const xDomain = kept && kept[1] > kept[0] * (1 + 1e-9) ? kept : full;
   const x = scaleLog().domain(xDomain as [number, number]).range([0, innerWidth]);
   const visible = visibleRange(freqHz, xDomain);
 
