@@ -133,6 +133,9 @@ describe('the result panels', () => {
     const svgText = readFileSync((await svgFile.path())!, 'utf8');
     expect(svgText).toContain('<svg');
     expect(svgText).not.toContain('cursor-line');
+    // The file carries its own legend and the netlist's title.
+    expect(svgText).toContain('>Resistor-tail pair</text>');
+    expect(svgText).toContain('>ac(outa)</text>');
 
     const [png] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export the plot as PNG' }).click()]);
     const pngBytes = readFileSync((await png.path())!);

@@ -85,7 +85,7 @@ interface Figure {
       @if (cmrrSeries(); as series) {
         <h3 class="plot-title">CMRR over frequency</h3>
         <nw-bode-plot [freqHz]="freqHz()" [series]="series" [showPhase]="false" [markers]="cmrrMarkers()"
-                      magnitudeLabel="CMRR (dB)" ariaLabel="CMRR over frequency" [height]="210" />
+                      magnitudeLabel="CMRR (dB)" ariaLabel="CMRR over frequency" [height]="210" [caption]="(result()?.title ?? '') + ' — CMRR'" />
       } @else {
         <p class="note">Add <code>analyze ac from 10 Hz to 1 GHz per decade 20</code> to see how CMRR falls with frequency.</p>
       }

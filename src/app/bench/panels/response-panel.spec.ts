@@ -118,6 +118,33 @@ describe('ResponsePanel', () => {
     expect(reset.disabled).toBe(true);
   });
 
+  it('pans with Shift+arrows and zooms to a dragged box with the pointer', async () => {
+    const { fixture, el } = await render(pair);
+    const surface = el.querySelector('.surface') as HTMLElement;
+    const plot = fixture.componentInstance.plot()!;
+    surface.dispatchEvent(new KeyboardEvent('keydown', { key: '+' }));
+    const before = plot.xDomain()!;
+    surface.dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowRight', shiftKey: true }));
+    const after = plot.xDomain()!;
+    // A pan keeps the span (in decades) and moves towards higher frequencies.
+    expect(after[0]).toBeGreaterThan(before[0]);
+    expect(Math.log10(after[1] / after[0])).toBeCloseTo(Math.log10(before[1] / before[0]), 9);
+    plot.resetZoom();
+    await fixture.whenStable();
+    // jsdom lays nothing out, so client coordinates are SVG coordinates: the plot area starts at x = 58.
+    const geo = plot.geometry();
+    const at = (x: number) => ({ clientX: geo.left + x, clientY: geo.mag.top + 5, button: 0, bubbles: true });
+    surface.dispatchEvent(new MouseEvent('pointerdown', at(geo.innerWidth * 0.25)));
+    surface.dispatchEvent(new MouseEvent('pointermove', at(geo.innerWidth * 0.5)));
+    surface.dispatchEvent(new MouseEvent('pointerup', at(geo.innerWidth * 0.5)));
+    await fixture.whenStable();
+    const box = plot.xDomain()!;
+    // A quarter of the width of an eight-decade axis is two decades: 1 kHz … 100 kHz.
+    expect(box[0]).toBeCloseTo(1e3, 6);
+    expect(box[1]).toBeCloseTo(1e5, 4);
+    expect(el.querySelector('.x-labels text')!.textContent).toBe('1 kHz');
+  });
+
   it('exports CSV with exactly the plotted numbers and an SVG without the cursor', async () => {
     const { fixture, el } = await render(pair);
     const rows = parseCsv(fixture.componentInstance.csvText());

@@ -66,7 +66,7 @@ interface CurveEntry {
       </div>
       @if (shown().length > 0) {
         <nw-bode-plot [freqHz]="freqHz()" [series]="shownSeries()" [markers]="markers()" [height]="330"
-                      [ariaLabel]="'Bode plot of ' + shownKeys()" />
+                      [ariaLabel]="'Bode plot of ' + shownKeys()" [caption]="result()?.title" />
       } @else {
         <p class="empty">Choose a curve above to plot it.</p>
       }

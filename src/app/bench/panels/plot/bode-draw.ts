@@ -18,7 +18,12 @@ export interface PlotLabels {
   magnitude: string;
   phase: string;
   frequency: string;
+  /** A caption for the exported file (the netlist's title). */
+  caption?: string;
 }
+
+/** Height of one row of the exported legend. */
+const LEGEND_ROW = 20;
 
 /** Redraws the whole plot (cursor and zoom box layers are created empty). */
 export function drawPlot(svgEl: SVGSVGElement, geo: PlotGeometry, freqHz: readonly number[], series: readonly PlotSeries[], markers: readonly PlotMarker[], labels: PlotLabels): void {
@@ -96,6 +101,7 @@ export function drawPlot(svgEl: SVGSVGElement, geo: PlotGeometry, freqHz: readon
     }
   }
   drawMarkers(root, geo, markers);
+  drawExportLegend(svg, geo, series, labels.caption);
   root.append('g').attr('class', 'cursor').attr('data-export', 'skip');
   root.append('rect').attr('class', 'zoom-box').attr('data-export', 'skip').attr('display', 'none')
     .attr('fill', PLOT_COLORS.zoomBox).attr('stroke', PLOT_COLORS.cursor).attr('stroke-dasharray', '4 2');
@@ -128,6 +134,38 @@ function drawMarkers(root: G, geo: PlotGeometry, markers: readonly PlotMarker[])
       .attr('stroke', PLOT_COLORS.paper).attr('stroke-width', 4).attr('paint-order', 'stroke').attr('stroke-linejoin', 'round')
       .text(m.label);
   }
+}
+
+/**
+ * The legend of the exported file: below the plot, outside the on-screen view box (the page
+ * has its own legend), with the caption first. The SVG's `data-export-extra` tells the export
+ * how much taller the file must be to show it.
+ */
+function drawExportLegend(svg: Selection<SVGSVGElement, unknown, null, undefined>, geo: PlotGeometry, series: readonly PlotSeries[], caption?: string): void {
+  const g = svg.append('g').attr('class', 'export-legend');
+  let x = geo.left;
+  let row = 0;
+  const place = (width: number) => {
+    if (x + width > geo.width - 8 && x > geo.left) {
+      row++;
+      x = geo.left;
+    }
+    const at = { x, y: geo.height + 6 + row * LEGEND_ROW + 12 };
+    x += width;
+    return at;
+  };
+  if (caption) {
+    const at = place(caption.length * 7 + 24);
+    g.append('text').attr('x', at.x).attr('y', at.y).attr('font-weight', 700).attr('fill', PLOT_COLORS.ink).text(caption);
+  }
+  for (const s of series) {
+    const at = place(34 + s.label.length * 7 + 18);
+    g.append('line').attr('x1', at.x).attr('x2', at.x + 26).attr('y1', at.y - 4).attr('y2', at.y - 4)
+      .attr('stroke', s.style.color).attr('stroke-width', 2.5).attr('stroke-dasharray', s.style.dash || null);
+    g.append('text').attr('x', at.x + 32).attr('y', at.y).attr('fill', PLOT_COLORS.ink).text(s.label);
+  }
+  const extra = series.length > 0 || caption ? (row + 1) * LEGEND_ROW + 8 : 0;
+  svg.attr('data-export-extra', extra);
 }
 
 /** Draws the crosshair at sample `index` (or clears it when undefined). */

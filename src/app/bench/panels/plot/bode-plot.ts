@@ -3,7 +3,7 @@ import {
 } from '@angular/core';
 import { formatTick } from '../si-format';
 import { drawCursor, drawPlot, drawZoomBox, readoutText } from './bode-draw';
-import { serializeSvg, svgSize } from './plot-export';
+import { exportSize, serializeSvg } from './plot-export';
 import {
   clampDomain, fullDomain, layoutPlot, nearestIndex, panDomain, zoomDomain, type Domain, type PlotGeometry, type PlotMarker, type PlotSeries,
 } from './plot-geometry';
@@ -84,6 +84,8 @@ export class BodePlot {
   readonly markers = input<readonly PlotMarker[]>([]);
   readonly magnitudeLabel = input('Magnitude (dB)');
   readonly ariaLabel = input('Bode plot');
+  /** Caption of the exported file, e.g. the netlist's title. */
+  readonly caption = input<string>();
   /** Height in pixels; by default 360 with the phase panel, 220 without. */
   readonly height = input<number>();
 
@@ -135,7 +137,7 @@ export class BodePlot {
       const geo = this.geometry();
       const svg = this.svgRef().nativeElement;
       drawPlot(svg, geo, this.freqHz(), this.series(), this.markers(), {
-        magnitude: this.magnitudeLabel(), phase: 'Phase (°)', frequency: 'Frequency (Hz)',
+        magnitude: this.magnitudeLabel(), phase: 'Phase (°)', frequency: 'Frequency (Hz)', caption: this.caption(),
       });
       drawCursor(svg, geo, this.freqHz(), this.series(), untracked(this.cursorIndex));
     });
@@ -153,9 +155,9 @@ export class BodePlot {
     return serializeSvg(this.svgRef().nativeElement);
   }
 
-  /** Drawn size in CSS pixels. */
+  /** Size of the exported file in CSS pixels (the plot and its legend). */
   size(): { width: number; height: number } {
-    return svgSize(this.svgRef().nativeElement);
+    return exportSize(this.svgRef().nativeElement);
   }
 
   resetZoom(): void {

@@ -51,11 +51,13 @@ export function serializeSvg(svg: SVGSVGElement): string {
   const clone = svg.cloneNode(true) as SVGSVGElement;
   inlineStyles(svg, clone);
   clone.querySelectorAll('[data-export="skip"]').forEach((el) => el.remove());
-  const { width, height } = svgSize(svg);
+  const { width, height } = exportSize(svg);
   clone.setAttribute('xmlns', 'http://www.w3.org/2000/svg');
   clone.setAttribute('width', String(width));
   clone.setAttribute('height', String(height));
-  if (!clone.getAttribute('viewBox')) clone.setAttribute('viewBox', `0 0 ${width} ${height}`);
+  clone.setAttribute('viewBox', `0 0 ${width} ${height}`);
+  clone.querySelector('rect.paper')?.setAttribute('height', String(height));
+  clone.removeAttribute('data-export-extra');
   clone.removeAttribute('tabindex');
   clone.removeAttribute('class');
   return '<?xml version="1.0" encoding="UTF-8"?>\n' + new XMLSerializer().serializeToString(clone);
@@ -66,6 +68,12 @@ export function svgSize(svg: SVGSVGElement): { width: number; height: number } {
   const width = Number(svg.getAttribute('width')) || svg.clientWidth || 640;
   const height = Number(svg.getAttribute('height')) || svg.clientHeight || 360;
   return { width, height };
+}
+
+/** Size of the exported file: the plot plus the legend rows drawn below it (`data-export-extra`). */
+export function exportSize(svg: SVGSVGElement): { width: number; height: number } {
+  const { width, height } = svgSize(svg);
+  return { width, height: height + (Number(svg.getAttribute('data-export-extra')) || 0) };
 }
 
 function inlineStyles(source: Element, target: Element): void {

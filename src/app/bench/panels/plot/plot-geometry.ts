@@ -50,7 +50,7 @@ export interface PlotGeometry {
   visible: readonly [first: number, last: number];
 }
 
-export const MARGIN = { left: 58, right: 18, top: 14, bottom: 42, gap: 22 } as const;
+export const MARGIN = { left: 58, right: 24, top: 14, bottom: 42, gap: 22 } as const;
 
 /** Inputs of the layout. */
 export interface LayoutInput {
