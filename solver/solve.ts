@@ -64,7 +64,9 @@ function solveUnguarded(text: string, options: SolveOptions): SolveResult {
   const diagnostics: Diagnostic[] = [...parsed.diagnostics];
   const circuit = parsed.circuit;
   let result = emptyResult(circuit?.title ?? '', circuit?.options.temp ?? 27);
-  if (circuit && !diagnostics.some((d) => d.severity === 'error')) {
+  // The parser withholds the circuit when the circuit itself has errors; errors confined to
+  // requests (a misspelt measure) leave it, and the rest of the results, in place.
+  if (circuit) {
     for (const r of parsed.requests.analyses) {
       if (LATER_ANALYSES.has(r.kind)) {
         diagnostics.push(diag('warning', 'analysis-not-available', r.loc, `analyze ${r.kind} is not yet available in this version; the line is skipped.`, 'the other analyses run as usual'));

@@ -38,9 +38,11 @@ export interface NetlistSymbols {
 }
 
 export interface ParseResult {
-  /** Absent when there are errors. */
+  /** Absent when the circuit itself has errors (errors only in analyze/ports/measure/check lines leave it). */
   circuit?: Circuit;
   requests: Requests;
+  /** Lines of analyze, ports, measure and check statements (errors there drop only the request). */
+  requestLines: ReadonlySet<number>;
   /** All problems at once, errors and warnings, sorted by line and column. */
   diagnostics: Diagnostic[];
   /** Names for editor completion. */
@@ -167,9 +169,14 @@ export function parseNetlist(text: string, options: ParseOptions = {}): ParseRes
   const symbols: NetlistSymbols = { models: [], blocks: [], params: [], parts: [], nodes: [] };
   let requests = emptyRequests();
   let elab: Elaboration | undefined;
+  const requestLines = new Set<number>();
   try {
     const source = typeof text === 'string' ? text : '';
+    source.split('\n').forEach((l, i) => {
+      if (/^\s*(analyze|ports|measure|check)\b/.test(l)) requestLines.add(i + 1);
+    });
     const file = parseFile(source, bag);
+    for (const r of file.requests) requestLines.add(r.loc.line);
     const uses = new UseResolver(bag, options.resolveUse);
     uses.resolveFile(file, undefined, []);
     elab = elaborate(file, bag, { usedBlocks: uses.usedBlocks, useAnchors: uses.anchors, paramOverrides: options.paramOverrides });
@@ -191,6 +198,8 @@ export function parseNetlist(text: string, options: ParseOptions = {}): ParseRes
     bag.error('internal', { line: 1, col: 1 }, `Internal error while reading the netlist (${message}); please report it with the netlist.`);
   }
   const diagnostics = finish(bag.items);
-  const hasErrors = diagnostics.some((d) => d.severity === 'error');
-  return { ...(elab && !hasErrors ? { circuit: elab.circuit } : {}), requests, diagnostics, symbols };
+  // A mistake in an analyze, ports, measure or check line drops that request only: the circuit
+  // still solves, so a designer typing a new measure keeps the bias and gains on screen.
+  const circuitErrors = diagnostics.some((d) => d.severity === 'error' && (!requestLines.has(d.line) || d.code === 'internal'));
+  return { ...(elab && !circuitErrors ? { circuit: elab.circuit } : {}), requests, requestLines, diagnostics, symbols };
 }

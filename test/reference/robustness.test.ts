@@ -58,3 +58,28 @@ describe('robustness', () => {
     expect(r.op?.nodes.a).toBe(1);
   });
 });
+
+describe('a mistake in a request line loses nothing else', () => {
+  const base = [
+    'vcc: vsrc(vcc, gnd) 10 V',
+    'r1: res(vcc, mid) 1k',
+    'r2: res(mid, gnd) 3k',
+    'measure vm = v(mid)',
+  ];
+
+  it('a measure naming an unknown node is an error on its line, while the operating point and other measures stay', () => {
+    const r = solveNetlist([...base, 'measure bad = v(midd)', 'check vm = 7.5 ± 1%'].join('\n'));
+    expect(r.errors).toHaveLength(1);
+    expect(r.errors[0]).toMatchObject({ line: 5, message: expect.stringContaining('midd') });
+    // Divider 10 V · 3k/(1k + 3k) = 7.5 V (Ohm's law); 1e-8 relative leaves room for min_g (1e-12 S).
+    expect(Math.abs((r.op?.nodes.mid ?? 0) / 7.5 - 1)).toBeLessThan(1e-8);
+    expect(Math.abs(r.measures.vm / 7.5 - 1)).toBeLessThan(1e-8);
+    expect(r.checks).toMatchObject([{ pass: true, line: 6 }]);
+  });
+
+  it('a mistake in a part line withholds every result, since the circuit itself is wrong', () => {
+    const r = solveNetlist([...base, 'r3: res(mid, gnd) 2 F'].join('\n'));
+    expect(r.errors.length).toBeGreaterThan(0);
+    expect(r.op).toBeUndefined();
+  });
+});
