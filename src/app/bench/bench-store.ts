@@ -6,7 +6,7 @@
  * edit is autosaved into the open draft shortly after typing stops, so nothing is lost to a
  * reload, a closed tab or a stopped server.
  */
-import { computed, DestroyRef, inject, Injectable, linkedSignal, signal } from '@angular/core';
+import { computed, DestroyRef, inject, Injectable, signal } from '@angular/core';
 import type { Diagnostic, SolveResult } from '../../../solver';
 import { Drafts, titleOf, UNTITLED, type Draft } from '../core/drafts';
 import type { EditorDocument, RevealRequest } from './editor/netlist-editor';
@@ -48,15 +48,10 @@ export class BenchStore {
   readonly names = computed(() => this.client.reply()?.names ?? NO_NAMES);
   readonly solveMs = computed(() => this.client.reply()?.solveMs);
 
-  /** The newest reply that solved without errors (reset when another netlist is opened). */
-  private readonly lastClean = linkedSignal<SolveReply | undefined, SolveReply | undefined>({
-    source: this.client.reply,
-    computation: (reply, previous) => (reply && reply.result.errors.length === 0 ? reply : previous?.value),
-  });
   private readonly shownReply = computed<SolveReply | undefined>(() => {
     const reply = this.client.reply();
     if (!reply || reply.result.errors.length === 0) return reply;
-    return this.lastClean() ?? reply;
+    return this.client.lastClean() ?? reply;
   });
   /**
    * What the panels show: the newest result when it solved cleanly; while the text has errors
@@ -185,7 +180,7 @@ export class BenchStore {
     this.fileName.set(fileName);
     // Nothing to save until it is edited: browsing the examples leaves no drafts behind.
     this.saveState.set('saved');
-    this.lastClean.set(undefined);
+    this.client.forgetClean();
     this.client.solveNow(text);
   }
 }

@@ -51,6 +51,8 @@ export class SolverClient {
 
   /** The newest reply (only ever for the newest text sent). */
   readonly reply = signal<SolveReply | undefined>(undefined);
+  /** The newest reply whose result has no errors (see `forgetClean`). */
+  readonly lastClean = signal<SolveReply | undefined>(undefined);
   readonly status = signal<SolveStatus>('idle');
   /** True while a solve has taken longer than SLOW_MS. */
   readonly slow = signal(false);
@@ -87,6 +89,11 @@ export class SolverClient {
     this.flush();
   }
 
+  /** Another netlist is opened: its results must not fall back on the previous one's. */
+  forgetClean(): void {
+    this.lastClean.set(undefined);
+  }
+
   /** Stops the solve in progress (and any scheduled one); the last result stays. */
   cancel(): void {
     this.clearDebounce();
@@ -115,6 +122,7 @@ export class SolverClient {
     this.clearSlow();
     this.failure.set(undefined);
     this.reply.set(message);
+    if (message.result.errors.length === 0) this.lastClean.set(message);
     this.status.set(this.pendingText !== undefined ? 'waiting' : 'idle');
   }
 

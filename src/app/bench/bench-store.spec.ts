@@ -1,0 +1,119 @@
+import { TestBed } from '@angular/core/testing';
+import type { Diagnostic, SolveResult } from '../../../solver';
+import { DRAFT_BACKEND, Drafts, MemoryDraftBackend } from '../core/drafts';
+import { AUTOSAVE_MS, BenchStore, MAX_FILE_BYTES, slug } from './bench-store';
+import { EXAMPLES } from './examples';
+import { SOLVER_WORKER_FACTORY, SolverClient, type WorkerLike } from './solver-client';
+import { NO_NAMES, type SolveRequest, type WorkerMessage } from './solver-protocol';
+
+/** A worker that answers at once: a result with an error when the text contains `ERR`. */
+class EchoWorker implements WorkerLike {
+  onmessage: ((event: MessageEvent<WorkerMessage>) => void) | null = null;
+  onerror: ((event: ErrorEvent) => void) | null = null;
+  postMessage(m: SolveRequest): void {
+    const errors: Diagnostic[] = m.text.includes('ERR') ? [{ severity: 'error', code: 'syntax', line: 1, col: 1, message: 'bad' }] : [];
+    const result = { title: m.text, temp_c: 27, measures: {}, checks: [], warnings: [], errors } as SolveResult;
+    queueMicrotask(() => this.onmessage?.({ data: { type: 'solved', id: m.id, result, text: m.text, names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>));
+  }
+  terminate(): void {}
+}
+
+describe('BenchStore', () => {
+  let store: BenchStore;
+  let drafts: Drafts;
+
+  beforeEach(() => {
+    TestBed.configureTestingModule({
+      providers: [BenchStore, SolverClient, { provide: SOLVER_WORKER_FACTORY, useValue: () => new EchoWorker() }, { provide: DRAFT_BACKEND, useValue: new MemoryDraftBackend() }],
+    });
+    store = TestBed.inject(BenchStore);
+    drafts = TestBed.inject(Drafts);
+  });
+
+  async function solved(text: string): Promise<void> {
+    store.edit(text);
+    store.solveNow();
+    await Promise.resolve();
+    await Promise.resolve();
+  }
+
+  it('shows the newest clean result, and the last clean one (stale) while the text has errors', async () => {
+    await solved('good one');
+    expect(store.shown()?.title).toBe('good one');
+    expect(store.stale()).toBe(false);
+    await solved('good two');
+    await solved('half-typed ERR');
+    expect(store.shown()?.title).toBe('good two');
+    expect(store.shownText()).toBe('good two');
+    expect(store.stale()).toBe(true);
+    expect(store.diagnostics()).toHaveLength(1);
+    await solved('good three');
+    expect(store.shown()?.title).toBe('good three');
+    expect(store.stale()).toBe(false);
+  });
+
+  it('does not carry a clean result over to another netlist', async () => {
+    await solved('good one');
+    await store.openFile(new File(['ERR from the start'], 'bad.nwl'));
+    await Promise.resolve();
+    await Promise.resolve();
+    expect(store.shown()?.title).toBe('ERR from the start');
+    expect(store.stale()).toBe(false);
+  });
+
+  it('autosaves an edit into a new draft, then into the same draft', async () => {
+    vi.useFakeTimers();
+    try {
+      await store.openExample(EXAMPLES[0]);
+      expect(store.saveState()).toBe('saved');
+      store.edit('title First\n');
+      expect(store.saveState()).toBe('unsaved');
+      await vi.advanceTimersByTimeAsync(AUTOSAVE_MS + 10);
+      expect(store.saveState()).toBe('saved');
+      const id = store.draftId();
+      expect(id).toBeDefined();
+      store.edit('title Second\n');
+      await vi.advanceTimersByTimeAsync(AUTOSAVE_MS + 10);
+      expect(store.draftId()).toBe(id);
+      expect(drafts.list().map((d) => d.title)).toEqual(['Second']);
+    } finally {
+      vi.useRealTimers();
+    }
+  });
+
+  it('leaves no draft behind for an example that was only looked at; Ctrl-S makes one', async () => {
+    await store.openExample(EXAMPLES[0]);
+    await store.openExample(EXAMPLES[2]);
+    await drafts.refresh();
+    expect(drafts.list()).toEqual([]);
+    await store.saveNow();
+    expect(drafts.list().map((d) => d.title)).toEqual([EXAMPLES[2].text.split('\n')[0].replace(/^title\s+/, '')]);
+  });
+
+  it('opens a text file as a new draft and refuses what is not a netlist', async () => {
+    expect(await store.openFile(new File(['title From disk\r\nq1: res(a, gnd) 1k\r\n'], 'pair.nwl'))).toBeUndefined();
+    expect(store.source()).toBe('title From disk\nq1: res(a, gnd) 1k\n');
+    expect(store.fileName()).toBe('pair.nwl');
+    expect(drafts.list()[0].fileName).toBe('pair.nwl');
+    expect(await store.openFile(new File([new Uint8Array(MAX_FILE_BYTES + 1)], 'big.nwl'))).toMatch(/MB/);
+    expect(await store.openFile(new File([new Uint8Array([0x50, 0x4b, 0x03, 0x04, 0])], 'a.zip', { type: 'application/zip' }))).toMatch(/not a text file/);
+    expect(store.source()).toBe('title From disk\nq1: res(a, gnd) 1k\n');
+  });
+
+  it('downloads under the file name it came from, else a name made from its title', async () => {
+    await store.openExample(EXAMPLES[0]);
+    expect(store.download().name).toBe(`${slug(store.title())}.nwl`);
+    expect(slug('Strainlab front end, step 1: resistor-tail pair')).toBe('strainlab-front-end-step-1-resistor-tail-pair');
+    await store.openFile(new File(['title x\n'], 'bridge.txt'));
+    expect(store.download().name).toBe('bridge.nwl');
+    expect(await store.download().blob.text()).toBe('title x\n');
+  });
+
+  it('asks the editor for a line again even when it is the same line', () => {
+    store.selectLine(12);
+    const first = store.reveal();
+    store.selectLine(12);
+    expect(store.reveal()?.line).toBe(12);
+    expect(store.reveal()?.seq).not.toBe(first?.seq);
+  });
+});

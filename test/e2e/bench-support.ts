@@ -1,0 +1,57 @@
+/**
+ * Helpers for the bench's browser tests: typing into the CodeMirror editor and waiting for the
+ * solve that follows.
+ */
+import type { Page } from 'playwright-core';
+
+/** Replaces the whole netlist in the editor, as a paste would. */
+export async function replaceNetlist(page: Page, text: string): Promise<void> {
+  const content = page.locator('.cm-content');
+  await content.click();
+  await page.keyboard.press('Control+A');
+  await page.keyboard.press('Delete');
+  await page.keyboard.insertText(text);
+}
+
+/** Waits until a result is painted after the newest edit (the bench's performance marks). */
+export async function waitForPainted(page: Page): Promise<void> {
+  await page.waitForFunction(() => {
+    const edits = performance.getEntriesByName('nw-edit');
+    const painted = performance.getEntriesByName('nw-painted');
+    const lastEdit = edits.length ? edits[edits.length - 1].startTime : -1;
+    return painted.some((p) => p.startTime > lastEdit);
+  }, undefined, { timeout: 15_000 });
+}
+
+/** Puts the cursor on a line of the editor (1-based) at a column (1-based). */
+export async function cursorTo(page: Page, line: number, col = 1): Promise<void> {
+  await page.locator('.cm-content').click();
+  await page.keyboard.press('Control+Home');
+  for (let k = 1; k < line; k++) await page.keyboard.press('ArrowDown');
+  await page.keyboard.press('Home');
+  for (let k = 1; k < col; k++) await page.keyboard.press('ArrowRight');
+}
+
+/** Replaces the first occurrence of `from` on line `line` by `to`, typed as a user would. */
+export async function editOnLine(page: Page, line: number, from: string, to: string): Promise<void> {
+  const text = await lineText(page, line);
+  const at = text.indexOf(from);
+  if (at < 0) throw new Error(`line ${line} has no "${from}": ${text}`);
+  await cursorTo(page, line, at + 1);
+  for (let k = 0; k < from.length; k++) await page.keyboard.press('Shift+ArrowRight');
+  await page.keyboard.type(to);
+}
+
+/** The text of an editor line (1-based), as rendered. */
+export async function lineText(page: Page, line: number): Promise<string> {
+  return (await page.locator('.cm-line').nth(line - 1).textContent()) ?? '';
+}
+
+/** The line (1-based) the cursor is on. */
+export async function cursorLine(page: Page): Promise<number> {
+  return page.evaluate(() => {
+    const active = document.querySelector('.cm-activeLine');
+    const lines = [...document.querySelectorAll('.cm-line')];
+    return active ? lines.indexOf(active) + 1 : 0;
+  });
+}
