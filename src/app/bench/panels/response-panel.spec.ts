@@ -182,6 +182,23 @@ describe('ResponsePanel', () => {
   });
 });
 
+describe('ResponsePanel without ports', () => {
+  it('plots node curves and marks an RC low-pass corner at 1/(2πRC)', async () => {
+    const lowPass = solveNetlist('title RC low-pass\nv1: vsrc(in, gnd) 0 ac=1\nr1: res(in, out) 1k\nc1: cap(out, gnd) 1u\nanalyze ac from 1 Hz to 100 kHz per decade 50\n');
+    expect(lowPass.errors).toEqual([]);
+    const { fixture, el } = await render(lowPass);
+    expect(fixture.componentInstance.shown().map((e) => e.key)).toEqual(['ac(in)', 'ac(out)']);
+    fixture.componentInstance.selectCurve('ac(out)');
+    await fixture.whenStable();
+    // First-order low-pass: f(−3 dB) = 1/(2π·R·C) = 159.15 Hz (Horowitz & Hill, The Art of Electronics, 3rd ed., §1.7.1, from memory).
+    expect(el.querySelector('.marker-corner .marker-label')!.textContent).toBe(`−3 dB at ${(1 / (2 * Math.PI * 1e3 * 1e-6)).toPrecision(3)} Hz`);
+    // ac(in) is the source itself: flat at 0 dB, so it has no corner, and 0 dB from the start is no crossing.
+    fixture.componentInstance.selectCurve('ac(in)');
+    await fixture.whenStable();
+    expect(el.querySelector('.marker-corner')).toBeNull();
+  });
+});
+
 describe('ResponsePanel curve styles', () => {
   it('never draws two shown curves alike, and the legend swatch matches the plotted curve', async () => {
     const { fixture, el } = await render(pair);
