@@ -139,13 +139,13 @@ describe('resistor-tail differential pair', () => {
   const half = (a: number, b: number) => ({ sources: new Map([['va', { re: a, im: 0 }], ['vb', { re: b, im: 0 }]]) });
   const [dm, cm] = solver.solve(0, [half(0.5, -0.5), half(1, 1)]);
 
-  it('has adm = −gm·RC exactly per half-circuit (Gray, Hurst, Lewis & Meyer, Analysis and Design of Analog ICs, 5th ed., §3.5, from memory)', () => {
+  it('has adm = −gm·RC exactly per half-circuit (Sedra & Smith, Microelectronic Circuits, 7th ed., differential-amplifier chapter, differential half circuit, from memory)', () => {
     const adm = dm.v('outa').re - dm.v('outb').re;
     expect(rel(adm, -q1.gm * rc)).toBeLessThan(1e-9);
     expect(Math.abs(dm.v('tail').re)).toBeLessThan(1e-12); // the tail is an AC ground for the differential mode
   });
 
-  it('has acm = −gm·RC / (1 + 2·RE·(gm + 1/rπ)) (Gray, Hurst, Lewis & Meyer, 5th ed., §3.5, common-mode half-circuit, from memory)', () => {
+  it('has acm = −gm·RC / (1 + 2·RE·(gm + 1/rπ)) (Sedra & Smith, Microelectronic Circuits, 7th ed., differential-amplifier chapter, common-mode half circuit, from memory)', () => {
     const acm = (cm.v('outa').re + cm.v('outb').re) / 2;
     expect(rel(acm, (-q1.gm * rc) / (1 + 2 * re * (q1.gm + 1 / q1.rpi)))).toBeLessThan(1e-9);
   });
@@ -159,7 +159,7 @@ describe('resistor-tail differential pair', () => {
 });
 
 describe('differential pair DC transfer', () => {
-  it('splits the tail as ΔIC = α·IEE·tanh(vid/2VT) (Gray, Hurst, Lewis & Meyer, 5th ed., §3.5.1, from memory)', () => {
+  it('splits the tail as ΔIC = α·IEE·tanh(vid/2VT) (Sedra & Smith, Microelectronic Circuits, 7th ed., large-signal operation of the BJT differential pair, from memory)', () => {
     const c = diffPair({ rc: 2000, re: 0, tailSource: true });
     const values = Array.from({ length: 21 }, (_, k) => -0.2 + k * 0.02);
     const sweep = dcSweep(c, 'va', values);

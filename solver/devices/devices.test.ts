@@ -29,7 +29,7 @@ describe('temperature', () => {
     expect(close(saturationCurrentAt(1e-16, 1.12, 3, 125), expected, 1e-14)).toBe(true);
   });
 
-  it('gives dVBE/dT = (VBE − eg − pt·VT)/T at constant current (Gray, Hurst, Lewis & Meyer, 5th ed., §4.4.1, from memory)', () => {
+  it('gives dVBE/dT = (VBE − eg − pt·VT)/T at constant current (Razavi, Design of Analog CMOS Integrated Circuits, 2nd ed., ch. 12, bandgap references, from memory)', () => {
     const vbe = (tempC: number, is: number) => thermalVoltage(tempC) * Math.log(1e-3 / saturationCurrentAt(is, 1.12, 3, tempC));
     for (const is of [1e-16, 1e-14]) {
       const h = 1e-3;

@@ -31,8 +31,8 @@ describe('curve measures', () => {
   });
 
   // Two-pole response: the unity crossing solves |A(jfu)| = 1 and the phase margin is
-  // 180° − atan(fu/p1) − atan(fu/p2) (Gray, Hurst, Lewis & Meyer, Analysis and Design of
-  // Analog Integrated Circuits, 5th ed., §9.4, two-pole frequency compensation).
+  // 180° − atan(fu/p1) − atan(fu/p2) (Razavi, Design of Analog CMOS Integrated Circuits, 2nd ed.,
+  // ch. 10, stability and frequency compensation, from memory).
   it('unity and margin of a two-pole response', () => {
     const a0 = 1e4;
     const p1 = 1e3;

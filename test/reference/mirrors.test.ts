@@ -109,8 +109,7 @@ measure io = ic(w1.qb)
     expectRelative(io, 10e-6, 0.05);
   });
 
-  // Gray, Hurst, Lewis & Meyer, Analysis and Design of Analog Integrated Circuits, 5th ed.,
-  // §3.4.2 (cascode): Rout = ro2 + (1 + gm2·ro2)(ro1 ‖ rπ2), exact for the hybrid-pi circuit
+  // Sedra & Smith, Microelectronic Circuits, 7th ed., BJT cascode output resistance (from memory): Rout = ro2 + (1 + gm2·ro2)(ro1 ‖ rπ2), exact for the hybrid-pi circuit
   // with the solver's own gm, rπ, ro. Measured two ways: zout at a resistor-loaded output
   // (the load divided out) and zin of a voltage source holding the output.
   it('cascode output resistance ro2 + (1 + gm2·ro2)(ro1 ‖ rπ2) via zout and zin', () => {

@@ -123,7 +123,7 @@ ports in=(va, vb) out=(outa, outb)
 });
 
 describe('large-signal pair on an ideal tail', () => {
-  // Gray, Hurst, Lewis & Meyer, 5th ed., §3.5.1 (emitter-coupled pair transfer characteristic):
+  // Sedra & Smith, Microelectronic Circuits, 7th ed., large-signal operation of the BJT differential pair (from memory):
   // IC1 − IC2 = α·IEE·tanh(vid/(2VT)), exact for the exponential model with va = ∞.
   it('ΔIC = α·IEE·tanh(vid/(2VT)) through analyze transfer', () => {
     const iee = 1e-3;

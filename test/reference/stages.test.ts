@@ -93,7 +93,7 @@ measure f3 = corner(ac(out))
 
   // Two-pole amplifier A0/((1 + s/p1)(1 + s/p2)) built from ideal controlled sources and RC
   // sections: fu solves |A(jfu)| = 1 and the phase margin is 180° − atan(fu/p1) − atan(fu/p2)
-  // (Gray, Hurst, Lewis & Meyer, 5th ed., §9.4). Tolerance 1 % for the sweep interpolation.
+  // (Razavi, Design of Analog CMOS Integrated Circuits, 2nd ed., ch. 10, from memory). Tolerance 1 % for the sweep interpolation.
   it('unity and margin on a two-pole response', () => {
     const r = solveOk(`
 title Two-pole response
