@@ -48,6 +48,11 @@ async function openBench(path = '/bench'): Promise<Page> {
   return page;
 }
 
+/** Lets opening animations and transitions finish before a screenshot. */
+async function settle(page: Page): Promise<void> {
+  await page.evaluate(() => Promise.all(document.getAnimations().map((a) => a.finished.catch(() => undefined))));
+}
+
 async function showTab(page: Page, name: RegExp | string): Promise<void> {
   await page.getByRole('tab', { name }).click();
 }
@@ -132,7 +137,7 @@ describe('the bench, live', () => {
     await editOnLine(page, rcLine, '8k', '4k');
     await waitForPainted(page);
     expect(await lineText(page, rcLine)).toContain('rc = 4k');
-    // Halving RC halves adm: 42.6 dB − 6 dB fails `a0 >= 40` (Gray & Meyer, 5th ed., §3.5: adm = −gm·RC).
+    // Halving RC halves adm: 42.6 dB − 6 dB fails `a0 >= 40` (Sedra & Smith, Microelectronic Circuits, 7th ed., differential half circuit: adm = −gm·RC, from memory).
     await expect.poll(() => page.locator('nw-results-summary').textContent()).toMatch(/1 of 4 checks fail/);
     const failing = checks.locator('.row.failing');
     await expect.poll(() => failing.count()).toBe(1);
@@ -172,6 +177,7 @@ describe('the bench, live', () => {
     const dialog = page.getByRole('dialog');
     await expect.poll(() => dialog.textContent()).toContain('Kept across reload');
     expect(await dialog.textContent()).toContain('From a file');
+    await settle(page);
     await page.screenshot({ path: join(RESULTS_DIR, 'bench-drafts.png') });
     await dialog.getByRole('button', { name: /^Open Kept across reload/ }).click();
     await expect.poll(() => page.locator('.cm-content').textContent()).toContain('Kept across reload');
@@ -185,6 +191,7 @@ describe('the bench, live', () => {
     const dialog = page.getByRole('dialog', { name: 'Keyboard shortcuts' });
     await dialog.waitFor();
     expect(await dialog.textContent()).toContain('Solve now');
+    await settle(page);
     await page.screenshot({ path: join(RESULTS_DIR, 'bench-help.png') });
     await page.keyboard.press('Escape');
     await dialog.waitFor({ state: 'detached' });

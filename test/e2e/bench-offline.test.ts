@@ -84,7 +84,7 @@ describe('the bench offline', () => {
     await expect.poll(() => page.locator('nw-results-summary').textContent()).toMatch(/All 1 checks pass/);
 
     // Solving still works: a ten times larger tail resistor cuts the tail current, gm and so adm
-    // (adm = −gm·RC, gm = IC/VT; Gray & Meyer, 5th ed., §3.5) by about 20 dB: the gain check fails.
+    // (adm = −gm·RC, gm = IC/VT; Sedra & Smith, Microelectronic Circuits, 7th ed., differential half circuit, from memory) by about 20 dB: the gain check fails.
     await editOnLine(page, 11, '4.65k', '46.5k');
     await waitForPainted(page);
     await expect.poll(() => page.locator('nw-results-summary').textContent()).toMatch(/1 of 1 checks fail/);

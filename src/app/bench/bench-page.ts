@@ -76,9 +76,9 @@ export const PAINTED_MARK = 'nw-painted';
   `,
   styles: `
     :host { display: grid; grid-template-rows: auto minmax(0, 1fr); height: calc(100vh - 65px); min-height: 480px; }
-    .work { display: grid; grid-template-columns: minmax(360px, 43fr) minmax(0, 57fr); gap: 12px; padding: 8px 12px 10px; min-height: 0; }
-    .left { display: grid; grid-template-rows: minmax(0, 1fr) auto; gap: 6px; min-height: 0; }
-    .editor { min-height: 0; height: 100%; }
+    .work { display: grid; grid-template-columns: minmax(0, 43fr) minmax(0, 57fr); gap: 12px; padding: 8px 12px 10px; min-height: 0; }
+    .left { display: grid; grid-template-rows: minmax(0, 1fr) auto; grid-template-columns: minmax(0, 1fr); gap: 6px; min-height: 0; min-width: 0; }
+    .editor { min-height: 0; min-width: 0; height: 100%; }
     .problems { max-height: 24vh; }
     .right { display: flex; flex-direction: column; min-height: 0; min-width: 0; }
     .panels { flex: 1; min-height: 0; border: 1px solid var(--mat-sys-outline-variant); border-radius: 8px;

@@ -29,7 +29,6 @@ export function toLintDiagnostics(doc: Text, diagnostics: readonly Diagnostic[])
       from,
       to,
       severity: d.severity === 'error' ? 'error' : 'warning',
-      source: d.code,
       message: d.hint ? `${d.message} Hint: ${d.hint}.` : d.message,
       renderMessage: () => renderMessage(d),
     };

@@ -46,8 +46,8 @@ export const EDIT_MARK = 'nw-edit';
       <div class="drop-hint" aria-hidden="true">Drop a .nwl file to open it</div>
     }`,
   styles: `
-    :host { display: block; position: relative; min-height: 0; }
-    .host { height: 100%; border: 1px solid var(--mat-sys-outline-variant); border-radius: 8px; overflow: hidden; }
+    :host { display: block; position: relative; min-height: 0; min-width: 0; }
+    .host { height: 100%; width: 100%; border: 1px solid var(--mat-sys-outline-variant); border-radius: 8px; overflow: hidden; }
     .host.dragging { border: 2px dashed var(--mat-sys-tertiary); }
     .drop-hint { position: absolute; inset: auto 12px 12px auto; padding: 6px 10px; border-radius: 6px;
       background: var(--mat-sys-tertiary); color: var(--mat-sys-on-tertiary); pointer-events: none; }
@@ -73,13 +73,26 @@ export class NetlistEditor {
   private shownKey: number | undefined;
 
   constructor() {
+    let resize: ResizeObserver | undefined;
     afterNextRender(() => {
       const doc = untracked(this.document);
       const view = new EditorView({ parent: this.host().nativeElement, state: this.createState(doc.text) });
       this.shownKey = doc.key;
       this.view.set(view);
+      // When the editor gets shorter (the problems list grows below it), keep the cursor in sight.
+      if (typeof ResizeObserver === 'undefined') return;
+      let height = this.host().nativeElement.clientHeight;
+      resize = new ResizeObserver(() => {
+        const h = this.host().nativeElement.clientHeight;
+        if (h < height && view.hasFocus) view.dispatch({ effects: EditorView.scrollIntoView(view.state.selection.main.head, { y: 'nearest', yMargin: 24 }) });
+        height = h;
+      });
+      resize.observe(this.host().nativeElement);
     });
-    inject(DestroyRef).onDestroy(() => this.view()?.destroy());
+    inject(DestroyRef).onDestroy(() => {
+      resize?.disconnect();
+      this.view()?.destroy();
+    });
 
     effect(() => {
       const view = this.view();

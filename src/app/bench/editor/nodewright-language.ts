@@ -192,7 +192,7 @@ export const nodewrightHighlight = HighlightStyle.define([
   { tag: t.className, color: '#35508a', fontWeight: '600' },
   { tag: t.propertyName, color: '#6b4a00' },
   { tag: t.number, color: '#116340' },
-  { tag: t.unit, color: '#116340', fontStyle: 'italic' },
+  { tag: t.unit, color: '#116340' },
   { tag: t.function(t.variableName), color: '#1f5f7a' },
   { tag: t.constant(t.variableName), color: '#6a3c8c' },
   { tag: t.string, color: '#35508a' },

@@ -29,8 +29,8 @@ describe('the Strainlab examples', () => {
   }
 
   it('resistor tail: adm matches the half-circuit gain −gm·(RC ∥ ro)·rπ/(rπ + RG)', () => {
-    // Gray, Hurst, Lewis & Meyer, Analysis and Design of Analog Integrated Circuits, 5th ed.,
-    // §3.5.6.1 (differential-mode half circuit), with the source resistance RG in series with rπ.
+    // Sedra & Smith, Microelectronic Circuits, 7th ed., differential-amplifier chapter
+    // (differential half circuit, from memory), with the source resistance RG in series with rπ.
     const r = solved.get('resistor-tail')!;
     const q = bjt(r, 'q1');
     const rcRo = (8e3 * q.ro) / (8e3 + q.ro);
@@ -46,7 +46,7 @@ describe('the Strainlab examples', () => {
   });
 
   it('mirror-loaded: adm ≈ gm·(ro2 ∥ ro4)·rπ/(rπ + RG), single-ended', () => {
-    // Gray, Hurst, Lewis & Meyer, 5th ed., §4.3.5.2 (active-load differential pair): Gm ≈ gm1,
+    // Sedra & Smith, Microelectronic Circuits, 7th ed., differential pair with active load (from memory): Gm ≈ gm1,
     // Ro = ro2 ∥ ro4, so |adm| ≈ gm·(ro2 ∥ ro4); within 10% (mirror pole-free at 0 Hz, β errors).
     const r = solved.get('mirror-loaded')!;
     const q2 = bjt(r, 'q2');
