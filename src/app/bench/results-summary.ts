@@ -21,8 +21,8 @@ function db(value: number | undefined): string {
       @if (checks(); as c) {
         <span class="verdict" [class.fail]="c.failed > 0" [class.pass]="c.failed === 0 && c.total > 0">
           @if (c.total === 0) { No checks }
-          @else if (c.failed === 0) { <span aria-hidden="true">✓</span> All {{ c.total }} checks pass }
-          @else { <span aria-hidden="true">✕</span> {{ c.failed }} of {{ c.total }} checks fail }
+          @else if (c.failed === 0) { <span aria-hidden="true">✓</span> {{ c.total === 1 ? 'The check passes' : 'All ' + c.total + ' checks pass' }} }
+          @else { <span aria-hidden="true">✕</span> {{ c.failed }} of {{ c.total }} {{ c.total === 1 ? 'check fails' : 'checks fail' }} }
         </span>
       }
       @if (result()?.ports; as p) {
