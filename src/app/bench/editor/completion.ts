@@ -103,8 +103,9 @@ function insideConnections(kind: string, inside: string, names: NetlistNames): C
   if (!named || afterEquals) return node(names);
   const used = new Set([...inside.matchAll(/([A-Za-z_][A-Za-z0-9_]*)\s*=/g)].map((m) => m[1]));
   const pins = spec ? spec.pins : block!.pins;
-  return pins.filter((p) => !used.has(p)).map((p) => ({
-    label: `${p}=`, type: 'property', detail: spec ? `${PIN_DETAIL[p] ?? 'pin'}${spec.defaults?.[p] ? ` (defaults to ${spec.defaults[p]})` : ''}` : `pin of ${kind}`,
+  // Boosted in pin order, so the list reads c, b, e (d, g, s, b) rather than alphabetically.
+  return pins.filter((p) => !used.has(p)).map((p, index, all) => ({
+    label: `${p}=`, type: 'property', boost: all.length - index, detail: spec ? `${PIN_DETAIL[p] ?? 'pin'}${spec.defaults?.[p] ? ` (defaults to ${spec.defaults[p]})` : ''}` : `pin of ${kind}`,
   }));
 }
 
