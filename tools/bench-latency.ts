@@ -71,7 +71,7 @@ async function measureExample(page: Page, url: string, id: string): Promise<{ si
   const col = lines[lineIndex].search(/\d/) + 1;
   const original = lines[lineIndex][col - 1];
   const other = original === '9' ? '8' : String(Number(original) + 1);
-  await page.locator('.cm-content').click();
+  await page.locator('.cm-content').click({ position: { x: 8, y: 8 } });
 
   const single: number[] = [];
   for (let k = 0; k < EDITS + 3; k++) {

@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { launchBrowser, RESULTS_DIR, type Browser } from '../support/browser';
-import { cursorLine, editOnLine, lineText, replaceNetlist, waitForPainted } from './bench-support';
+import { cursorLine, editOnLine, focusEditor, lineText, replaceNetlist, waitForPainted } from './bench-support';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -116,7 +116,7 @@ describe('the bench, live', () => {
     const problem = page.locator('nw-problems-list button').first();
     expect(await problem.textContent()).toMatch(/line 11/);
     expect(await problem.textContent()).toMatch(/M for mega/);
-    await page.locator('.cm-content').click();
+    await focusEditor(page);
     await page.keyboard.press('Control+Home');
     await problem.click();
     await expect.poll(() => cursorLine(page)).toBe(11);
@@ -184,9 +184,28 @@ describe('the bench, live', () => {
     await page.close();
   });
 
+  it('shows progress with a cancel button for a long solve, and the page stays responsive', async () => {
+    const page = await openBench();
+    // 18 001 frequency points over a 40-section RC ladder: seconds of work, well past the 300 ms threshold.
+    const ladder = Array.from({ length: 40 }, (_, k) => `rl${k}: res(${k === 0 ? 'outa' : `l${k - 1}`}, l${k}) 1k\ncl${k}: cap(l${k}, gnd) 1p`).join('\n');
+    await replaceNetlist(page, PAIR.replace('per decade 20', 'per decade 2000').replace('from 10 Hz', 'from 1 Hz') + ladder + '\n');
+    const summary = page.locator('nw-results-summary');
+    await page.getByRole('button', { name: 'Cancel the solve' }).waitFor({ timeout: 10_000 });
+    expect(await summary.textContent()).toContain('Solving…');
+    expect(await page.locator('mat-progress-bar').count()).toBe(1);
+    // The main thread is free while the worker solves: a frame comes within a few tens of ms.
+    const frameMs = await page.evaluate(() => new Promise<number>((r) => { const t = performance.now(); requestAnimationFrame(() => r(performance.now() - t)); }));
+    expect(frameMs).toBeLessThan(100);
+    await page.screenshot({ path: join(RESULTS_DIR, 'bench-solving.png') });
+    await page.getByRole('button', { name: 'Cancel the solve' }).click();
+    await expect.poll(() => summary.textContent()).toMatch(/Solve cancelled/);
+    expect(await page.locator('mat-progress-bar').count()).toBe(0);
+    await page.close();
+  });
+
   it('shows the keyboard shortcuts on F1 and completes pin names', async () => {
     const page = await openBench('/bench?example=resistor-tail');
-    await page.locator('.cm-content').click();
+    await focusEditor(page);
     await page.keyboard.press('F1');
     const dialog = page.getByRole('dialog', { name: 'Keyboard shortcuts' });
     await dialog.waitFor();

@@ -4,10 +4,17 @@
  */
 import type { Page } from 'playwright-core';
 
+/**
+ * Focuses the editor by clicking near its top left corner (a click on the middle of a long
+ * `.cm-content` would make the browser scroll the editor sideways to reach it).
+ */
+export async function focusEditor(page: Page): Promise<void> {
+  await page.locator('.cm-content').click({ position: { x: 8, y: 8 } });
+}
+
 /** Replaces the whole netlist in the editor, as a paste would. */
 export async function replaceNetlist(page: Page, text: string): Promise<void> {
-  const content = page.locator('.cm-content');
-  await content.click();
+  await focusEditor(page);
   await page.keyboard.press('Control+A');
   await page.keyboard.press('Delete');
   await page.keyboard.insertText(text);
@@ -25,7 +32,7 @@ export async function waitForPainted(page: Page): Promise<void> {
 
 /** Puts the cursor on a line of the editor (1-based) at a column (1-based). */
 export async function cursorTo(page: Page, line: number, col = 1): Promise<void> {
-  await page.locator('.cm-content').click();
+  await focusEditor(page);
   await page.keyboard.press('Control+Home');
   for (let k = 1; k < line; k++) await page.keyboard.press('ArrowDown');
   await page.keyboard.press('Home');

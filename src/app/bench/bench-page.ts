@@ -48,7 +48,7 @@ export const PAINTED_MARK = 'nw-painted';
         <nw-results-summary [result]="store.shown()" [stale]="store.stale()" [errorCount]="store.errorCount()"
           [status]="client.status()" [slow]="client.slow()" [solveMs]="store.solveMs()" [failure]="client.failure()"
           (cancel)="client.cancel()" />
-        <mat-tab-group class="panels" [class.stale]="store.stale()" animationDuration="0ms" mat-stretch-tabs="false" mat-align-tabs="start">
+        <mat-tab-group class="panels" [class.stale]="store.stale() || client.slow()" animationDuration="0ms" mat-stretch-tabs="false" mat-align-tabs="start">
           <mat-tab label="Bias">
             <ng-template matTabContent><div class="panel"><nw-bias-panel [result]="store.shown()" /></div></ng-template>
           </mat-tab>
