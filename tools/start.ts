@@ -37,7 +37,7 @@ try {
     logLevel: process.env.NODEWRIGHT_LOG_LEVEL ?? 'info',
   });
   console.log(`\nNodewright is ready at ${server.url}/  (${((Date.now() - started) / 1000).toFixed(1)} s)`);
-  console.log('Demo accounts: ada@ (admin), ravi@ (designer), mei@ (reviewer), sam@ (viewer) — all @strainlab.example');
+  console.log(`The bench: ${server.url}/bench — open Examples for the Strainlab demo netlists.`);
   console.log('Press Ctrl-C to stop (PostgreSQL stops with it).');
 } catch (e) {
   console.error(`\nCould not start Nodewright: ${(e as Error).message}`);
