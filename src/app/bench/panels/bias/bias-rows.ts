@@ -49,8 +49,8 @@ export function regionFlag(d: DeviceOp): CellFlag | undefined {
 /** A headroom warning for a device that is in its region but close to leaving it. */
 export function headroomFlag(d: DeviceOp): CellFlag | undefined {
   if ((d.kind === 'npn' || d.kind === 'pnp') && d.region === 'active') {
-    const vce = d.kind === 'npn' ? d.vce : -d.vce;
-    if (vce < BJT_HEADROOM_V) return { text: `${d.kind === 'npn' ? 'VCE' : 'VEC'} < 0.3 V`, detail: 'little headroom before saturation' };
+    // The solver reports pnp voltages mirrored (vce = v(e) − v(c), positive when active).
+    if (d.vce < BJT_HEADROOM_V) return { text: `${d.kind === 'npn' ? 'VCE' : 'VEC'} < 0.3 V`, detail: 'little headroom before saturation' };
   }
   if ((d.kind === 'nmos' || d.kind === 'pmos') && d.region === 'saturation') {
     if (Math.abs(d.vds) - d.vov < MOS_HEADROOM_V) return { text: '|VDS| − Vov < 0.1 V', detail: 'at the edge of triode' };
