@@ -24,6 +24,8 @@ export interface ElaborateOptions {
   usedBlocks: Map<FileUnit, Map<string, BlockDef>>;
   /** Where each library file was brought in (its diagnostics point there). */
   useAnchors: Map<FileUnit, SourceLoc>;
+  /** Block names whose `use` failed and was reported: their instances are broken, not unknown. */
+  failedBlocks?: ReadonlySet<string>;
   /** Top-level parameter values that replace the written ones (used by `analyze vary`). */
   paramOverrides?: Record<string, number>;
 }
@@ -303,6 +305,7 @@ class Elaborator {
       return;
     }
     this.markBroken(frame, stmt);
+    if (this.options.failedBlocks?.has(kind)) return; // its `use` line already says why
     const isModel = this.lookupModel(frame, kind);
     const hint = isModel && isModel !== 'failed'
       ? `\`${kind}\` is a model: write \`${stmt.name.text}: ${isModel.kind}(…) ${kind}\``

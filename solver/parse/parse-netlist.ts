@@ -62,6 +62,8 @@ function emptyRequests(): Requests {
 class UseResolver {
   readonly usedBlocks = new Map<FileUnit, Map<string, BlockDef>>();
   readonly anchors = new Map<FileUnit, SourceLoc>();
+  /** Block names whose `use` failed (already reported), so their instances are not reported again. */
+  readonly failedBlocks = new Set<string>();
   private readonly cache = new Map<string, FileUnit | null>();
 
   constructor(
@@ -86,9 +88,13 @@ class UseResolver {
         continue;
       }
       const lib = this.load(use.path, use.version, key, loc, prefix);
-      if (!lib) continue;
+      if (!lib) {
+        this.failedBlocks.add(use.blockName);
+        continue;
+      }
       const def = lib.blocks.find((b) => b.name.text === use.blockName);
       if (!def) {
+        this.failedBlocks.add(use.blockName);
         this.bag.error('unknown-use', loc, `${prefix}\`${key}\` does not define a block \`${use.blockName}\`.`);
         continue;
       }
@@ -179,7 +185,7 @@ export function parseNetlist(text: string, options: ParseOptions = {}): ParseRes
     for (const r of file.requests) requestLines.add(r.loc.line);
     const uses = new UseResolver(bag, options.resolveUse);
     uses.resolveFile(file, undefined, []);
-    elab = elaborate(file, bag, { usedBlocks: uses.usedBlocks, useAnchors: uses.anchors, paramOverrides: options.paramOverrides });
+    elab = elaborate(file, bag, { usedBlocks: uses.usedBlocks, useAnchors: uses.anchors, failedBlocks: uses.failedBlocks, paramOverrides: options.paramOverrides });
     symbols.models = elab.modelNames;
     symbols.blocks = elab.blocks.map((b) => ({ name: b.name.text, pins: b.pins.map((p) => p.text), params: b.params.map((p) => p.name.text) }));
     symbols.params = [...elab.params.keys()];

@@ -83,3 +83,13 @@ describe('a mistake in a request line loses nothing else', () => {
     expect(r.op).toBeUndefined();
   });
 });
+
+describe('a `use` that cannot be resolved', () => {
+  it('is one error at the use line; the instances of its block are not reported again', () => {
+    const r = solveNetlist(
+      ['use mirrors/wilson_npn@3', 'vcc: vsrc(vcc, gnd) 5', 'r1: res(vcc, ref) 10k', 'm1: wilson_npn(in=ref, out=o, rail=gnd)', 'rl: res(vcc, o) 1k'].join('\n'),
+      { resolveUse: () => ({ ok: false, message: 'The team library is not connected.', hint: 'paste the block' }) },
+    );
+    expect(r.errors).toEqual([expect.objectContaining({ code: 'unknown-use', line: 1, message: 'The team library is not connected.', hint: 'paste the block' })]);
+  });
+});
