@@ -4,6 +4,7 @@
  */
 import { solveNetlist } from '../../../solver';
 import { namesOf } from './netlist-names';
+import { SeedLibrary } from './seed-library';
 import type { SolveReply, SolveRequest, WorkerMessage } from './solver-protocol';
 
 /** The worker's global scope, typed by what is used (the app compiles against the DOM library). */
@@ -13,18 +14,15 @@ interface WorkerScope {
 }
 const scope = self as unknown as WorkerScope;
 
-/** The bench does not reach the team library yet: say so at the `use` line, with a way on. */
-const benchUse = (path: string, version: number) => ({
-  ok: false as const,
-  message: `\`${path}@${version}\` cannot be used in the bench yet: the team library is not connected in this version.`,
-  hint: 'paste the block definition (block … end) into the netlist, or solve the file with `npm run solve`, which reads library/',
-});
+/** The seed block library shipped with the app, beside the worker script. */
+const library = new SeedLibrary(new URL('library/', self.location.href));
 
-scope.addEventListener('message', (event: MessageEvent<SolveRequest>) => {
+scope.addEventListener('message', async (event: MessageEvent<SolveRequest>) => {
   const request = event.data;
   if (request?.type !== 'solve') return;
   const started = performance.now();
-  const result = solveNetlist(request.text, { resolveUse: benchUse });
+  await library.preload(request.text);
+  const result = solveNetlist(request.text, { resolveUse: library.resolve });
   const reply: SolveReply = { type: 'solved', id: request.id, result, text: request.text, names: namesOf(request.text), solveMs: performance.now() - started };
   scope.postMessage(reply);
 });
