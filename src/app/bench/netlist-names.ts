@@ -4,6 +4,7 @@
  * needs to offer the right pins, models and result functions.
  */
 import { parseNetlist } from '../../../solver';
+import type { ParseOptions } from '../../../solver/parse';
 import type { NetlistNames } from './solver-protocol';
 
 const MODEL_LINE = /^\s*model\s+([A-Za-z_][A-Za-z0-9_]*)\s*:\s*([A-Za-z_][A-Za-z0-9_]*)/;
@@ -30,8 +31,8 @@ function scanKinds(text: string): { models: Map<string, string>; parts: Map<stri
 }
 
 /** Names for completion; never throws (the parser never does). */
-export function namesOf(text: string): NetlistNames {
-  const { symbols } = parseNetlist(text);
+export function namesOf(text: string, resolveUse?: ParseOptions['resolveUse']): NetlistNames {
+  const { symbols } = parseNetlist(text, { resolveUse });
   const kinds = scanKinds(text);
   return {
     models: symbols.models.map((name) => ({ name, kind: kinds.models.get(name) ?? '' })),

@@ -23,7 +23,7 @@ scope.addEventListener('message', async (event: MessageEvent<SolveRequest>) => {
   const started = performance.now();
   await library.preload(request.text);
   const result = solveNetlist(request.text, { resolveUse: library.resolve });
-  const reply: SolveReply = { type: 'solved', id: request.id, result, text: request.text, names: namesOf(request.text), solveMs: performance.now() - started };
+  const reply: SolveReply = { type: 'solved', id: request.id, result, text: request.text, names: namesOf(request.text, library.resolve), solveMs: performance.now() - started };
   scope.postMessage(reply);
 });
 
