@@ -10,7 +10,7 @@
  * CLI: `tsx tools/postgres.ts start|stop|status`.
  */
 import { execFileSync, spawnSync } from 'node:child_process';
-import { accessSync, chmodSync, chownSync, constants, existsSync, mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { chmodSync, chownSync, existsSync, mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { join, resolve } from 'node:path';
 
@@ -102,7 +102,6 @@ function ensureCluster(bin: string, data: string): void {
     'full_page_writes = off',
     "log_min_messages = warning",
   ].join('\n');
-  run(bin, 'postgres', ['--version']);
   const file = join(data, 'postgresql.auto.conf');
   if (isRoot) {
     spawnSync('runuser', ['-u', RUN_AS, '--', 'sh', '-c', `cat >> '${file}'`], { input: conf + '\n' });
@@ -159,7 +158,6 @@ export function stopPostgres(): void {
 if (import.meta.filename === resolve(process.argv[1] ?? '')) {
   const verb = process.argv[2];
   try {
-    accessSync(ROOT, constants.R_OK);
     if (verb === 'start') {
       const pg = startPostgres();
       console.log(`PostgreSQL on ${pg.url('postgres')}${pg.startedHere ? '' : ' (already running)'}`);
