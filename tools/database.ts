@@ -6,7 +6,7 @@ import pg from 'pg';
 import type { DataSource } from 'typeorm';
 import { createDataSource } from '../api/data-source';
 import { seedDemoData } from '../api/services/seed';
-import type { PostgresHandle } from './postgres';
+import { PG_USER, type PostgresHandle } from './postgres';
 
 function quoteIdent(name: string): string {
   if (!/^[a-z_][a-z0-9_]*$/.test(name)) throw new Error(`Unsafe database name: ${name}`);
@@ -15,12 +15,13 @@ function quoteIdent(name: string): string {
 
 /** Creates `name` on the cluster; with `fresh`, drops it first. */
 export async function ensureDatabase(pgHandle: PostgresHandle, name: string, fresh = false): Promise<void> {
-  const client = new pg.Client({ connectionString: pgHandle.url('postgres') });
+  const client = new pg.Client({ connectionString: pgHandle.adminUrl('postgres') });
   await client.connect();
   try {
     if (fresh) await client.query(`DROP DATABASE IF EXISTS ${quoteIdent(name)} WITH (FORCE)`);
     const { rowCount } = await client.query('SELECT 1 FROM pg_database WHERE datname = $1', [name]);
-    if (!rowCount) await client.query(`CREATE DATABASE ${quoteIdent(name)}`);
+    // Owned by the app role, so its migrations can create tables, though it is no superuser.
+    if (!rowCount) await client.query(`CREATE DATABASE ${quoteIdent(name)} OWNER ${quoteIdent(PG_USER)}`);
   } finally {
     await client.end();
   }

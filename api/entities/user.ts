@@ -17,6 +17,9 @@ export class User {
   @Column({ type: 'text', name: 'oidc_subject', unique: true, nullable: true })
   oidcSubject!: string | null;
 
+  @Column({ type: 'timestamptz', name: 'last_sign_in_at', nullable: true })
+  lastSignInAt!: Date | null;
+
   @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
   createdAt!: Date;
 

@@ -1,4 +1,5 @@
 import { Initial1764600000000 } from './1764600000000-initial';
+import { Team1764700000000 } from './1764700000000-team';
 
 /** Every migration, oldest first. */
-export const MIGRATIONS = [Initial1764600000000];
+export const MIGRATIONS = [Initial1764600000000, Team1764700000000];

@@ -3,7 +3,7 @@ import { freshTestDatabase, type TestDatabase } from '../support/test-database';
 
 let db: TestDatabase | undefined;
 
-/** One fresh database per run of the api project, on the real PostgreSQL. */
+/** One fresh seeded database per run of the api project, on the real PostgreSQL. */
 export async function setup(project: TestProject): Promise<void> {
   db = await freshTestDatabase('nodewright_test_api', { seed: true });
   project.provide('databaseUrl', db.url);
@@ -17,5 +17,6 @@ declare module 'vitest' {
   export interface ProvidedContext {
     databaseUrl: string;
     baseUrl: string;
+    inboxUrl: string;
   }
 }

@@ -6,13 +6,13 @@
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { APP_DIST } from '../../tools/build-app';
-import { serveProduct, type RunningServer } from '../../tools/serve';
+import { startTeamStack, type RunningStack } from '../../tools/team-stack';
 import { launchBrowser, RESULTS_DIR, type Browser } from '../support/browser';
 import { freshTestDatabase } from '../support/test-database';
 import { editOnLine, replaceNetlist, waitForPainted } from './bench-support';
 
 let browser: Browser;
-let server: RunningServer | undefined;
+let server: RunningStack | undefined;
 
 beforeAll(async () => {
   browser = await launchBrowser();
@@ -41,7 +41,7 @@ check a0 >= 40
 describe('the bench offline', () => {
   it('opens, solves and keeps drafts with the server stopped', { timeout: 120_000 }, async () => {
     const db = await freshTestDatabase('nodewright_test_e2e_offline');
-    server = await serveProduct({ databaseUrl: db.url, host: '127.0.0.1', port: 0, staticDir: APP_DIST, logLevel: 'warn' });
+    server = await startTeamStack({ databaseUrl: db.url, appPort: 0, idpPort: 0, smtpPort: 0, inboxPort: 0, staticDir: APP_DIST, logLevel: 'warn' });
     const url = server.url;
     const page = await browser.context.newPage();
     await page.goto(url + '/bench');

@@ -2,21 +2,26 @@ import type { TestProject } from 'vitest/node';
 import { buildApp, APP_DIST } from '../../tools/build-app';
 import { ensureChromium } from '../support/browser';
 import { freshTestDatabase, type TestDatabase } from '../support/test-database';
-import { serveProduct, type RunningServer } from '../../tools/serve';
+import { startTeamStack, type RunningStack } from '../../tools/team-stack';
 
 let db: TestDatabase | undefined;
-let server: RunningServer | undefined;
+let stack: RunningStack | undefined;
 
-/** The real product: built app + API on a fresh seeded database, on an ephemeral loopback port. */
+/**
+ * The real product: built app + API on a fresh seeded database, with the development identity
+ * provider and mail fake, all on ephemeral loopback ports.
+ */
 export async function setup(project: TestProject): Promise<void> {
   ensureChromium();
   buildApp({ quiet: true });
   db = await freshTestDatabase('nodewright_test_e2e', { seed: true });
-  server = await serveProduct({ databaseUrl: db.url, host: '127.0.0.1', port: 0, staticDir: APP_DIST, logLevel: 'warn' });
-  project.provide('baseUrl', server.url);
+  stack = await startTeamStack({ databaseUrl: db.url, appPort: 0, idpPort: 0, smtpPort: 0, inboxPort: 0, staticDir: APP_DIST, logLevel: 'warn' });
+  project.provide('baseUrl', stack.url);
+  project.provide('inboxUrl', stack.mail.inboxUrl);
+  project.provide('databaseUrl', db.url);
 }
 
 export async function teardown(): Promise<void> {
-  await server?.close();
+  await stack?.close();
   db?.pg.stop();
 }
