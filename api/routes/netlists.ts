@@ -111,8 +111,9 @@ export function netlistRoutes(ds: DataSource): RouteDef[] {
       handle: async ({ params, user, res }) => {
         const rev = await getRevision(ds, user.id, params.id, params.version);
         const base = rev.name.toLowerCase().normalize('NFKD').replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'netlist';
-        res.setHeader('Content-Type', 'text/plain; charset=utf-8');
         res.attachment(`${base}-v${rev.version}.nwl`);
+        // After attachment(), which would guess octet-stream from the unknown extension.
+        res.setHeader('Content-Type', 'text/plain; charset=utf-8');
         res.send(rev.source);
       },
     }),
