@@ -80,6 +80,8 @@ export function createApp(deps: AppDeps): NodewrightApp {
       serializers: {
         // The query and params would repeat the URL's tokens unmasked: the masked URL says it all.
         req: ({ query: _q, params: _p, ...req }: { url?: string; query?: unknown; params?: unknown }) => ({ ...req, url: req.url ? maskUrl(req.url) : req.url }),
+        // A redirect to the provider carries the OAuth state in its Location.
+        res: (res: { headers?: Record<string, unknown> }) => (typeof res.headers?.location === 'string' ? { ...res, headers: { ...res.headers, location: maskUrl(res.headers.location) } } : res),
       },
     }),
   );
@@ -89,7 +91,10 @@ export function createApp(deps: AppDeps): NodewrightApp {
   const sessionPool = new pg.Pool({ connectionString: config.databaseUrl, max: 10, connectionTimeoutMillis: 5000, statement_timeout: 10000, idleTimeoutMillis: 30000 });
   sessionPool.on('error', (err) => logger.warn({ reason: err.message }, 'session pool: connection lost'));
   const PgStore = connectPgSimple(session);
-  const store = new PgStore({ pool: sessionPool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 600, errorLog: (...args: unknown[]) => logger.warn({ reason: String(args.at(-1)) }, 'session store') });
+  // No touch: the cookie is not rolling, so a session ends 7 days after sign-in whatever its row
+  // says; touching would only cost an UPDATE per request (and a late error after each answer
+  // while the database is down).
+  const store = new PgStore({ pool: sessionPool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 600, disableTouch: true, errorLog: (...args: unknown[]) => logger.warn({ reason: String(args.at(-1)) }, 'session store') });
   const sessions = session({
     name: SESSION_COOKIE,
     secret: config.sessionSecret,

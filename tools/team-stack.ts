@@ -23,6 +23,8 @@ export interface StackOptions {
   inboxPort: number;
   staticDir?: string;
   logLevel?: string;
+  /** Where the API logs instead of stdout (tests read it). */
+  logDestination?: NodeJS.WritableStream;
   /** Further settings, as environment variables (rate limits, session secret…). */
   env?: Record<string, string>;
   /** More callback addresses the identity provider accepts (a dev server's proxy). */
@@ -79,7 +81,7 @@ export async function startTeamStack(o: StackOptions): Promise<RunningStack> {
     ...o.env,
   };
   const config = loadConfig({ ...process.env, ...env, NODE_ENV: process.env.NODE_ENV ?? 'development' });
-  const logger = createLogger(config.logLevel);
+  const logger = createLogger(config.logLevel, o.logDestination);
   let api: RunningApi | undefined;
   if (o.apiInProcess !== false) {
     try {

@@ -6,7 +6,8 @@
 /** SQLSTATE classes and codes that mean the server is gone, going or not yet accepting. */
 const UNAVAILABLE_SQLSTATES = new Set(['57P01', '57P02', '57P03', '53300', '08000', '08001', '08003', '08004', '08006']);
 const UNAVAILABLE_ERRNOS = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'ENOTCONN', 'EHOSTUNREACH']);
-const UNAVAILABLE_MESSAGES = [/Connection terminated/i, /timeout exceeded when trying to connect/i, /Client has encountered a connection error/i, /Connection is not established/i, /the database system is (starting up|shutting down)/i];
+// "already released": TypeORM lets go of a transaction's connection when it drops; the next statement says so.
+const UNAVAILABLE_MESSAGES = [/Connection terminated/i, /timeout exceeded when trying to connect/i, /Client has encountered a connection error/i, /Connection is not established/i, /already released/i, /Driver not Connected/i, /the database system is (starting up|shutting down)/i];
 
 /** Whether `err` (from pg, TypeORM or connect-pg-simple) means the database is unavailable. */
 export function isDatabaseUnavailable(err: unknown): boolean {

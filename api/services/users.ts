@@ -87,8 +87,16 @@ export async function userForSignIn(m: EntityManager, profile: ProviderProfile):
   if (byEmail[0]) return byEmail[0];
   const created: Person[] = await m.query(
     `INSERT INTO users (email, display_name, oidc_subject, last_sign_in_at) VALUES ($1, $2, $3, now())
-     RETURNING id, display_name AS name, email`,
+     ON CONFLICT (email) DO NOTHING RETURNING id, display_name AS name, email`,
     [email, name, profile.subject],
   );
-  return created[0];
+  if (created[0]) return created[0];
+  // Two first sign-ins at once (two tabs, two devices): the other one linked or created the
+  // account after our statements above looked; each statement sees what is committed, so look again.
+  const linked = rowsOf<Person>(await m.query(
+    `UPDATE users SET last_sign_in_at = now() WHERE oidc_subject = $1 RETURNING id, display_name AS name, email`,
+    [profile.subject],
+  ));
+  if (linked[0]) return linked[0];
+  throw new HttpError(409, 'email_in_use', 'This address belongs to another account of this server.');
 }

@@ -48,7 +48,8 @@ describe('schema and demo data', () => {
     await seedDemoData(api.dataSource);
     const rows: { email: string; slug: string; role: string }[] = await api.dataSource.query(
       `SELECT u.email, w.slug, m.role FROM memberships m JOIN users u ON u.id = m.user_id JOIN workspaces w ON w.id = m.workspace_id
-       WHERE u.email LIKE '%.example' ORDER BY u.email`,
+       WHERE u.email = ANY($1) ORDER BY u.email`,
+      [DEMO_USERS.map((u) => u.email)],
     );
     expect(rows).toEqual(DEMO_USERS.map((u) => ({ email: u.email, slug: u.workspace, role: u.role })).sort((a, b) => a.email.localeCompare(b.email)));
   });

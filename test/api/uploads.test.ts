@@ -20,7 +20,7 @@ afterAll(async () => {
 
 function form(files: [string, string | Uint8Array][]): FormData {
   const f = new FormData();
-  for (const [name, content] of files) f.append('files', new File([content], name, { type: 'application/octet-stream' }));
+  for (const [name, content] of files) f.append('files', new File([content as BlobPart], name, { type: 'application/octet-stream' }));
   return f;
 }
 const upload = (f: FormData) => ravi.request('POST', '/api/workspaces/strainlab/netlists/upload', { body: f });

@@ -2,96 +2,60 @@
  * The bench: the netlist editor on the left with its problems below, the results on the right —
  * a summary line, the panels (Bias, Response, Modes, Checks & measures) and the standing caution.
  * Sized for a 1280×800 laptop without scrolling the page: the editor and each panel scroll inside.
+ *
+ * `/bench?netlist=ID` opens a team netlist into its linked draft; `&version=N` opens revision N
+ * as an unlinked copy. Saving a linked draft also saves it to the team, through the conflict
+ * view when the team copy moved on (see TeamSync).
  */
 import { afterNextRender, ChangeDetectionStrategy, Component, computed, effect, inject, Injector, input, untracked, viewChild } from '@angular/core';
 import { MatDialog } from '@angular/material/dialog';
 import { MatSnackBar, MatSnackBarModule } from '@angular/material/snack-bar';
-import { MatTabsModule } from '@angular/material/tabs';
+import { firstValueFrom } from 'rxjs';
 import type { Diagnostic } from '../../../solver';
-import { Cautions } from '../core/cautions';
+import { Session } from '../core/session';
+import type { Netlist, StaleCurrent } from '../core/team-api';
+import { BenchColumns } from './bench-columns';
 import { BenchStore } from './bench-store';
 import { NetlistEditor, type EditorCommand } from './editor/netlist-editor';
 import { ProblemsList } from './editor/problems-list';
 import { ShortcutsHelp } from './editor/shortcuts-help';
 import { EXAMPLES, exampleById, type Example } from './examples';
 import { DraftsDialog, type DraftsDialogData, type DraftsDialogResult } from './files/drafts-dialog';
-import { FileBar } from './files/file-bar';
-import { BiasPanel } from './panels/bias-panel';
-import { ChecksPanel } from './panels/checks-panel';
-import { MeasuresPanel } from './panels/measures-panel';
-import { ModesPanel } from './panels/modes-panel';
-import { ResponsePanel } from './panels/response-panel';
-import { ResultsSummary } from './results-summary';
+import { FileBar, type TeamBar } from './files/file-bar';
+import { ResultsPanels } from './results-panels';
 import { SolverClient } from './solver-client';
+import { ConflictDialog, type ConflictData } from './team/conflict-dialog';
+import { SaveToTeamDialog, type SaveToTeamData } from './team/save-to-team-dialog';
+import { ShareDialog, type ShareData, type ShareResult } from './team/share-dialog';
+import { BEFORE_CONFLICT, TeamSync, type ConflictChoice, type PushOutcome } from './team/team-sync';
 
 /** Mark set once the results of an edit are on screen (after `nw-edit`), for latency measurement. */
 export const PAINTED_MARK = 'nw-painted';
 
 @Component({
   selector: 'nw-bench-page',
-  imports: [NetlistEditor, ProblemsList, FileBar, ResultsSummary, Cautions, MatTabsModule, MatSnackBarModule, BiasPanel, ResponsePanel, ModesPanel, ChecksPanel, MeasuresPanel],
-  providers: [SolverClient, BenchStore],
+  imports: [NetlistEditor, ProblemsList, FileBar, BenchColumns, ResultsPanels, MatSnackBarModule],
+  providers: [SolverClient, BenchStore, TeamSync],
   changeDetection: ChangeDetectionStrategy.OnPush,
   host: { '(document:keydown)': 'onKey($event)' },
   template: `
-    <nw-file-bar [title]="store.title()" [saveState]="store.saveState()" [hasDraft]="!!store.draftId()" [examples]="examples"
+    <nw-file-bar [title]="store.ownTitle()" [label]="store.label()" [status]="team.status()" [team]="teamBar()" [examples]="examples"
       (openExample)="openExample($event)" (drafts)="openDrafts()" (newNetlist)="store.newNetlist()" (openFile)="openFile($event)"
-      (download)="download()" (save)="save()" (solve)="store.solveNow()" (help)="help()" />
-    <div class="work">
-      <section class="left" aria-label="Netlist">
-        <nw-netlist-editor class="editor" [document]="store.document()" [diagnostics]="store.diagnostics()" [names]="store.names()"
-          [reveal]="store.reveal()" label="Netlist editor" (textChange)="store.edit($event)" (command)="command($event)"
-          (fileDropped)="openFile($event)" (cursorLine)="store.cursorLine.set($event)" />
-        <nw-problems-list class="problems" [diagnostics]="store.diagnostics()" (selected)="goToProblem($event)" />
-      </section>
-      <section class="right" aria-label="Results">
-        <nw-results-summary [result]="store.shown()" [stale]="store.stale()" [errorCount]="store.errorCount()"
-          [status]="client.status()" [slow]="client.slow()" [solveMs]="store.solveMs()" [failure]="client.failure()"
-          (cancel)="client.cancel()" />
-        <mat-tab-group class="panels" [class.stale]="store.stale() || client.slow()" animationDuration="0ms" mat-stretch-tabs="false" mat-align-tabs="start">
-          <mat-tab label="Bias">
-            <ng-template matTabContent><div class="panel"><nw-bias-panel [result]="store.shown()" /></div></ng-template>
-          </mat-tab>
-          <mat-tab label="Response">
-            <ng-template matTabContent><div class="panel"><nw-response-panel [result]="store.shown()" /></div></ng-template>
-          </mat-tab>
-          <mat-tab label="Modes">
-            <ng-template matTabContent><div class="panel"><nw-modes-panel [result]="store.shown()" /></div></ng-template>
-          </mat-tab>
-          <mat-tab>
-            <ng-template mat-tab-label>
-              Checks &amp; measures
-              @if (failedChecks() > 0) { <span class="badge fail" [attr.aria-label]="failedChecks() + ' failing'">{{ failedChecks() }} fail</span> }
-            </ng-template>
-            <ng-template matTabContent><div class="panel">
-              <nw-checks-panel [result]="store.shown()" [netlist]="store.shownText()" (lineSelected)="store.selectLine($event)" />
-              <h2 class="sub">Measures</h2>
-              <nw-measures-panel [result]="store.shown()" [netlist]="store.shownText()" (lineSelected)="store.selectLine($event)" />
-            </div></ng-template>
-          </mat-tab>
-        </mat-tab-group>
-        <nw-cautions class="caution" />
-      </section>
-    </div>
+      (download)="download()" (save)="save()" (solve)="store.solveNow()" (help)="help()" (saveToTeam)="saveToTeam()" (share)="share()" />
+    <nw-bench-columns>
+      <nw-netlist-editor netlist class="editor" [document]="store.document()" [diagnostics]="store.diagnostics()" [names]="store.names()"
+        [reveal]="store.reveal()" label="Netlist editor" (textChange)="store.edit($event)" (command)="command($event)"
+        (fileDropped)="openFile($event)" (cursorLine)="store.cursorLine.set($event)" />
+      <nw-problems-list problems [diagnostics]="store.diagnostics()" (selected)="goToProblem($event)" />
+      <nw-results-panels class="results" [result]="store.shown()" [text]="store.shownText()" [stale]="store.stale()" [errorCount]="store.errorCount()"
+        [status]="client.status()" [slow]="client.slow()" [solveMs]="store.solveMs()" [failure]="client.failure()"
+        (cancel)="client.cancel()" (lineSelected)="store.selectLine($event)" />
+    </nw-bench-columns>
   `,
   styles: `
-    :host { display: grid; grid-template-rows: auto minmax(0, 1fr); height: calc(100vh - 65px); min-height: 480px; }
-    .work { display: grid; grid-template-columns: minmax(0, 43fr) minmax(0, 57fr); gap: 12px; padding: 8px 12px 10px; min-height: 0; }
-    .left { display: grid; grid-template-rows: minmax(0, 1fr) auto; grid-template-columns: minmax(0, 1fr); gap: 6px; min-height: 0; min-width: 0; }
+    :host { display: grid; grid-template-rows: auto minmax(0, 1fr); grid-template-columns: minmax(0, 1fr); height: calc(100vh - 65px); min-height: 480px; }
     .editor { min-height: 0; min-width: 0; height: 100%; }
-    .problems { max-height: 24vh; }
-    .right { display: flex; flex-direction: column; min-height: 0; min-width: 0; }
-    .panels { flex: 1; min-height: 0; border: 1px solid var(--mat-sys-outline-variant); border-radius: 8px;
-      background: var(--mat-sys-surface-container-lowest); }
-    .panels.stale .panel { opacity: 0.62; }
-    .panel { padding: 10px 12px; }
-    :host ::ng-deep .panels .mat-mdc-tab-body-wrapper { flex: 1 1 auto; min-height: 0; }
-    :host ::ng-deep .panels .mat-mdc-tab-body-content { overflow: auto; }
-    .badge { margin-left: 6px; padding: 0 6px; border-radius: 8px; font-size: 0.75rem; font-weight: 700; }
-    .badge.fail { background: #f7d9d6; color: #7a1812; }
-    .sub { font: var(--mat-sys-title-small); margin: 18px 0 6px; color: var(--mat-sys-on-surface-variant); }
-    .caution { display: block; flex: none; }
-    .caution ::ng-deep .caution { margin-top: 8px; padding: 6px 10px; font-size: 0.8125rem; }
+    .results { flex: 1; }
   `,
 })
 export class BenchPage {
@@ -100,20 +64,46 @@ export class BenchPage {
   private readonly dialog = inject(MatDialog);
   private readonly snack = inject(MatSnackBar);
   private readonly injector = inject(Injector);
+  protected readonly team = inject(TeamSync);
+  private readonly session = inject(Session);
   private readonly fileBar = viewChild.required(FileBar);
   protected readonly examples = EXAMPLES;
 
   /** `/bench?example=mirror-loaded` opens that demo. */
   readonly example = input<string | undefined>();
+  /** `/bench?netlist=ID` opens that team netlist. */
+  readonly netlist = input<string | undefined>();
+  /** With `netlist`: `&version=N` opens revision N as a copy. */
+  readonly version = input<string | undefined>();
 
-  protected readonly failedChecks = computed(() => this.store.shown()?.checks.filter((c) => !c.pass).length ?? 0);
+  protected readonly teamBar = computed<TeamBar>(() => {
+    const remote = this.store.remote();
+    return {
+      signedIn: !!this.session.me(),
+      canCreate: this.team.canCreate(),
+      linked: remote && { netlistId: remote.netlistId, canWrite: this.team.canWrite() },
+    };
+  });
 
   constructor() {
     this.client.warmUp();
     afterNextRender(() => {
+      const id = untracked(this.netlist);
       const asked = exampleById(untracked(this.example));
-      if (asked) void this.store.openExample(asked);
+      if (id) void this.openTeam(id, untracked(this.version));
+      else if (asked) void this.store.openExample(asked);
       else void this.store.restore(EXAMPLES[0]);
+    });
+    // The same page asked for another team netlist (only query parameters changed).
+    let first = true;
+    effect(() => {
+      const id = this.netlist();
+      const version = this.version();
+      if (first) {
+        first = false;
+        return;
+      }
+      if (id) untracked(() => void this.openTeam(id, version));
     });
     // Each reply, once rendered and painted, is marked for the latency measurement.
     effect(() => {
@@ -137,6 +127,11 @@ export class BenchPage {
     const mod = event.ctrlKey || event.metaKey;
     const target = event.target as HTMLElement | null;
     const typing = !!target && (target.isContentEditable || /^(INPUT|TEXTAREA|SELECT)$/.test(target.tagName));
+    if (this.dialog.openDialogs.length > 0) {
+      // A dialog has the keyboard (the conflict view's editor among them): the bench's shortcuts wait.
+      if (mod && event.key.toLowerCase() === 's') event.preventDefault();
+      return;
+    }
     if (mod && event.key.toLowerCase() === 's') {
       event.preventDefault();
       void this.save();
@@ -162,12 +157,93 @@ export class BenchPage {
 
   protected async openFile(file: File): Promise<void> {
     const refused = await this.store.openFile(file);
-    this.snack.open(refused ?? `Opened ${file.name} as a new draft.`, 'OK', { duration: refused ? 8000 : 3000 });
+    this.tell(refused ?? `Opened ${file.name} as a new draft.`, refused ? 8000 : 3000);
   }
 
+  /** Ctrl-S: the draft in this browser first, then — for a linked draft — the team copy. */
   protected async save(): Promise<void> {
     await this.store.saveNow();
-    this.snack.open('Draft saved in this browser.', undefined, { duration: 2000 });
+    await this.after(await this.team.push());
+  }
+
+  /** "Save to team" for a draft not linked yet: the dialog creates the netlist; the draft links to it. */
+  protected async saveToTeam(): Promise<void> {
+    const workspace = this.session.workspace();
+    if (!workspace) return;
+    await this.store.saveNow(); // the text is safe here whatever the server says
+    const source = this.store.source();
+    const ref = this.dialog.open<SaveToTeamDialog, SaveToTeamData, Netlist>(SaveToTeamDialog, { data: { source, defaultName: this.store.title(), workspace }, width: '520px' });
+    const netlist = await firstValueFrom(ref.afterClosed());
+    if (!netlist) return;
+    await this.team.linkCreated(netlist, source);
+    this.tell(`Saved to team as “${netlist.name}”, v${netlist.version}.`);
+  }
+
+  protected async share(): Promise<void> {
+    const remote = this.store.remote();
+    if (!remote) return;
+    const data: ShareData = {
+      netlistId: remote.netlistId,
+      name: remote.name,
+      version: remote.baseVersion,
+      savedText: remote.savedText,
+      localDiffers: this.store.teamDirty(),
+      canSave: this.team.canWrite(),
+    };
+    const ref = this.dialog.open<ShareDialog, ShareData, ShareResult>(ShareDialog, { data, width: '720px', maxWidth: '96vw', maxHeight: '92vh', autoFocus: 'dialog' });
+    if ((await firstValueFrom(ref.afterClosed())) !== 'save-first') return;
+    await this.save();
+    if (this.store.remote()?.netlistId === remote.netlistId && !this.store.teamDirty()) await this.share();
+  }
+
+  private async openTeam(id: string, version: string | undefined): Promise<void> {
+    const v = version !== undefined && /^\d+$/.test(version) ? Number(version) : undefined;
+    const outcome = await this.team.open(id, v);
+    if (!outcome.opened) await this.store.restore(EXAMPLES[0]);
+    if (outcome.signIn && outcome.message) this.offerSignIn(outcome.message);
+    else if (outcome.message) this.tell(outcome.message, 8000);
+  }
+
+  /** Tells the user what a save came to; a conflict opens the conflict view. */
+  private async after(outcome: PushOutcome): Promise<void> {
+    switch (outcome.kind) {
+      case 'local': return this.tell('Draft saved in this browser.', 2000);
+      case 'unchanged': return this.tell(`Saved in this browser; no changes against team v${outcome.version}.`, 2500);
+      case 'saved': return this.tell(`Saved to team as v${outcome.version}.`, 2500);
+      case 'read-only': return this.tell('Saved in this browser. Your role cannot save to this team netlist; edits stay in this browser.', 6000);
+      case 'offline': return this.tell('Saved in this browser. The team server cannot be reached; the save will be sent when it is back.', 8000);
+      case 'signed-out': return this.offerSignIn('Saved in this browser. You are signed out; sign in to save to the team.');
+      case 'refused': return this.tell(`Saved in this browser. The team server refused the save: ${outcome.message}`, 10000);
+      case 'conflict': return this.resolveConflict(outcome.current);
+    }
+  }
+
+  /** The conflict view; a second conflict while resolving opens it again with the newer copy. */
+  private async resolveConflict(current: StaleCurrent): Promise<void> {
+    const remote = this.store.remote();
+    if (!remote || this.dialog.openDialogs.some((d) => d.componentInstance instanceof ConflictDialog)) return;
+    const ref = this.dialog.open<ConflictDialog, ConflictData, ConflictChoice>(ConflictDialog, {
+      data: { current, mine: this.store.source(), baseVersion: remote.baseVersion },
+      width: '96vw',
+      maxWidth: '96vw',
+      height: '92vh',
+      ariaLabel: 'Save conflict',
+      autoFocus: 'dialog',
+    });
+    const choice = await firstValueFrom(ref.afterClosed());
+    if (!choice) return this.tell('Not saved to the team; your text is as it was. Save again to compare.', 6000);
+    const outcome = await this.team.resolve(choice, current);
+    if (choice.action === 'take-theirs') return this.tell(`Showing team v${current.version}. Your text is kept as a separate draft “… (${BEFORE_CONFLICT})”.`, 8000);
+    return this.after(outcome);
+  }
+
+  /** A message with a Sign in action that comes back to this page. */
+  private offerSignIn(message: string): void {
+    this.snack.open(message, 'Sign in', { duration: 12000 }).onAction().subscribe(() => this.session.signIn());
+  }
+
+  private tell(message: string, duration = 3000): void {
+    this.snack.open(message, 'OK', { duration });
   }
 
   protected download(): void {

@@ -1,18 +1,19 @@
 /**
- * The bench's state, as signals: the netlist text, which draft it lives in, the newest solve and
- * the result the panels show, the diagnostics, and the line the editor should reveal.
+ * The bench's state, as signals: the netlist text, which draft it lives in (and the team netlist
+ * that draft is linked to, if any), the newest solve and the result the panels show, the
+ * diagnostics, and the line the editor should reveal.
  *
  * Solving goes through SolverClient (a Web Worker); storage through Drafts (IndexedDB). Every
  * edit is autosaved into the open draft shortly after typing stops, so nothing is lost to a
- * reload, a closed tab or a stopped server.
+ * reload, a closed tab or a stopped server. Saving to the team server is TeamSync's business;
+ * this store only keeps the link (`remote`) and writes it with the draft.
  */
 import { computed, DestroyRef, inject, Injectable, signal } from '@angular/core';
-import type { Diagnostic, SolveResult } from '../../../solver';
-import { Drafts, titleOf, UNTITLED, type Draft } from '../core/drafts';
+import { Drafts, draftTitle, UNTITLED, type Draft, type DraftRemote } from '../core/drafts';
 import type { EditorDocument, RevealRequest } from './editor/netlist-editor';
 import type { Example } from './examples';
 import { SolverClient } from './solver-client';
-import { NO_NAMES, type SolveReply } from './solver-protocol';
+import { SolveView } from './solve-view';
 
 /** Quiet time after the last edit before the draft is written. */
 export const AUTOSAVE_MS = 800;
@@ -20,6 +21,12 @@ export const AUTOSAVE_MS = 800;
 export const MAX_FILE_BYTES = 1_000_000;
 
 export type SaveState = 'saved' | 'unsaved' | 'saving';
+
+/** What a shown netlist carries besides its text. */
+export interface ShownMeta {
+  label?: string;
+  remote?: DraftRemote;
+}
 
 @Injectable()
 export class BenchStore {
@@ -37,33 +44,32 @@ export class BenchStore {
   readonly reveal = signal<RevealRequest | undefined>(undefined);
   readonly cursorLine = signal(1);
 
-  readonly title = computed(() => titleOf(this.source(), this.fileName() ?? UNTITLED));
-  /** The newest result, for the newest text. */
-  readonly latest = computed<SolveResult | undefined>(() => this.client.reply()?.result);
-  readonly diagnostics = computed<Diagnostic[]>(() => {
-    const r = this.latest();
-    return r ? [...r.errors, ...r.warnings].sort((a, b) => a.line - b.line || a.col - b.col) : [];
+  /** A note after the title ("revision 3"), kept with the draft. */
+  readonly label = signal<string | undefined>(undefined);
+  /** The team netlist the open draft is linked to, with the version it is based on. */
+  readonly remote = signal<DraftRemote | undefined>(undefined);
+  /** True when the text differs from the team version it is based on. */
+  readonly teamDirty = computed(() => {
+    const remote = this.remote();
+    return !!remote && this.source() !== remote.savedText;
   });
-  readonly errorCount = computed(() => this.latest()?.errors.length ?? 0);
-  readonly names = computed(() => this.client.reply()?.names ?? NO_NAMES);
-  readonly solveMs = computed(() => this.client.reply()?.solveMs);
 
-  private readonly shownReply = computed<SolveReply | undefined>(() => {
-    const reply = this.client.reply();
-    if (!reply || reply.result.errors.length === 0) return reply;
-    return this.client.lastClean() ?? reply;
-  });
-  /**
-   * What the panels show: the newest result when it solved cleanly; while the text has errors
-   * (half-typed words included) the last clean one, flagged `stale`, so the panels do not blink.
-   */
-  readonly shown = computed<SolveResult | undefined>(() => this.shownReply()?.result);
-  /** The text of the shown result (its measure and check lines). */
-  readonly shownText = computed(() => this.shownReply()?.text ?? '');
-  readonly stale = computed(() => {
-    const reply = this.client.reply();
-    return !!reply && reply.result.errors.length > 0 && this.shownReply() !== reply;
-  });
+  /** The draft's title: the netlist's own, then its label. */
+  readonly title = computed(() => draftTitle(this.source(), this.fileName() ?? UNTITLED, this.label()));
+  /** The netlist's own title, without the label. */
+  readonly ownTitle = computed(() => draftTitle(this.source(), this.fileName() ?? UNTITLED));
+
+  private readonly view = new SolveView(this.client);
+  /** The newest result, for the newest text. */
+  readonly latest = this.view.latest;
+  readonly diagnostics = this.view.diagnostics;
+  readonly errorCount = this.view.errorCount;
+  readonly names = this.view.names;
+  readonly solveMs = this.view.solveMs;
+  /** What the panels show (see SolveView). */
+  readonly shown = this.view.shown;
+  readonly shownText = this.view.shownText;
+  readonly stale = this.view.stale;
 
   private nextKey = 1;
   private revealSeq = 0;
@@ -78,7 +84,7 @@ export class BenchStore {
   async restore(fallback: Example): Promise<void> {
     const last = await this.drafts.lastOpened();
     void this.drafts.refresh();
-    if (last) this.show(last.text, last.id, last.fileName);
+    if (last) this.showDraft(last);
     else this.show(fallback.text, undefined, undefined);
   }
 
@@ -106,11 +112,40 @@ export class BenchStore {
     if (this.saveTimer !== undefined) clearTimeout(this.saveTimer);
     this.saveTimer = undefined;
     if (this.saveState() === 'saved') return this.saving;
+    return this.write();
+  }
+
+  /**
+   * Links the open netlist to a team netlist (or moves it to a new base version), optionally with
+   * new text (a conflict resolved, the team's copy taken), and writes both into the draft at once
+   * — creating the draft if there is none yet — so a reload keeps text and link together.
+   */
+  async relink(remote: DraftRemote, text = this.source()): Promise<void> {
+    this.remote.set(remote);
+    this.label.set(undefined);
+    if (text !== this.source()) {
+      this.document.set({ key: this.nextKey++, text });
+      this.source.set(text);
+      this.client.solveNow(text);
+    }
+    await this.write();
+  }
+
+  /** Shows a stored draft, with its label and team link. */
+  showDraft(draft: Draft): void {
+    this.show(draft.text, draft.id, draft.fileName, { label: draft.label, remote: draft.remote });
+  }
+
+  /** Chains one write of the current text and link into the draft. */
+  private write(): Promise<void> {
+    if (this.saveTimer !== undefined) clearTimeout(this.saveTimer);
+    this.saveTimer = undefined;
     const text = this.source();
+    const meta = { label: this.label() ?? null, remote: this.remote() ?? null };
     this.saveState.set('saving');
     this.saving = this.saving.then(async () => {
       const id = this.draftId();
-      const draft = id ? await this.drafts.save(id, text) : await this.drafts.create(text, this.fileName());
+      const draft = id ? await this.drafts.save(id, text, meta) : await this.drafts.create(text, this.fileName(), meta);
       this.draftId.set(draft.id);
       if (this.source() === text) this.saveState.set('saved');
       else this.saveState.set('unsaved');
@@ -133,7 +168,7 @@ export class BenchStore {
   async openDraft(id: string): Promise<Draft | undefined> {
     await this.flushSave();
     const draft = await this.drafts.open(id);
-    if (draft) this.show(draft.text, draft.id, draft.fileName);
+    if (draft) this.showDraft(draft);
     return draft;
   }
 
@@ -171,13 +206,16 @@ export class BenchStore {
     this.reveal.set({ line, col, seq: ++this.revealSeq });
   }
 
-  private show(text: string, draftId: string | undefined, fileName: string | undefined): void {
+  /** Shows a netlist: its text in a fresh editor document, solved at once. */
+  show(text: string, draftId: string | undefined, fileName: string | undefined, meta: ShownMeta = {}): void {
     if (this.saveTimer !== undefined) clearTimeout(this.saveTimer);
     this.saveTimer = undefined;
     this.document.set({ key: this.nextKey++, text });
     this.source.set(text);
     this.draftId.set(draftId);
     this.fileName.set(fileName);
+    this.label.set(meta.label);
+    this.remote.set(meta.remote);
     // Nothing to save until it is edited: browsing the examples leaves no drafts behind.
     this.saveState.set('saved');
     this.client.forgetClean();

@@ -8,7 +8,8 @@ import type { UseLookup } from '../../../solver/parse/parse-netlist';
 
 interface ManifestEntry { path: string; version: number; file: string }
 
-const USE_LINE = /^[ \t]*use[ \t]+([A-Za-z0-9_/]+)@(\d+)/gm;
+/** A `use path@version` line (path and version captured). */
+export const USE_LINE = /^[ \t]*use[ \t]+([A-Za-z0-9_/]+)@(\d+)/gm;
 
 export class SeedLibrary {
   private manifest: ManifestEntry[] | undefined;

@@ -1,5 +1,5 @@
 import { TestBed } from '@angular/core/testing';
-import { DRAFT_BACKEND, DRAFT_CLOCK, Drafts, MAX_DRAFTS, MemoryDraftBackend, titleOf, UNTITLED, type DraftBackend } from './drafts';
+import { DRAFT_BACKEND, DRAFT_CLOCK, Drafts, MAX_DRAFTS, MemoryDraftBackend, titleOf, UNTITLED, type DraftBackend, type DraftRemote } from './drafts';
 
 describe('titleOf', () => {
   it('takes the first title line, without its comment', () => {
@@ -83,6 +83,63 @@ describe('Drafts', () => {
     }
     expect(drafts.list()).toHaveLength(MAX_DRAFTS);
     expect(drafts.list().some((d) => d.id === first.id)).toBe(false);
+  });
+
+  describe('the link to a team netlist', () => {
+    const remote: DraftRemote = { netlistId: 'n1', workspace: 'strainlab', name: 'Bias core', baseVersion: 3, savedText: 'title Core\n' };
+
+    it('is stored with the draft and kept across saves of new text', async () => {
+      const d = await drafts.create('title Core\n', undefined, { remote });
+      expect(d.remote).toEqual(remote);
+      now += 10;
+      await drafts.save(d.id, 'title Core, edited\n');
+      const back = await backend.get(d.id);
+      expect(back?.text).toBe('title Core, edited\n');
+      expect(back?.remote).toEqual(remote);
+    });
+
+    it('moves to a new base version without new text, and can be removed', async () => {
+      const d = await drafts.create('title Core\n', undefined, { remote });
+      now += 10;
+      const moved = await drafts.save(d.id, 'title Core\n', { remote: { ...remote, baseVersion: 4 } });
+      expect(moved.updatedAt).toBe(now);
+      expect((await backend.get(d.id))?.remote?.baseVersion).toBe(4);
+      await drafts.save(d.id, 'title Core\n', { remote: null });
+      expect((await backend.get(d.id))?.remote).toBeUndefined();
+    });
+
+    it('is written again with the text when the draft was deleted meanwhile', async () => {
+      const d = await drafts.create('title Core\n', undefined, { remote });
+      await drafts.remove(d.id);
+      await drafts.save(d.id, 'title Core, kept\n', { remote });
+      expect((await backend.get(d.id))?.remote).toEqual(remote);
+    });
+
+    it('finds the draft linked to a netlist, the most recently changed first', async () => {
+      await drafts.create('title Other\n');
+      const old = await drafts.create('title Core\n', undefined, { remote });
+      now += 10;
+      const newer = await drafts.create('title Core 2\n', undefined, { remote: { ...remote, baseVersion: 4 } });
+      expect((await drafts.linkedTo('n1'))?.id).toBe(newer.id);
+      expect(old.id).not.toBe(newer.id);
+      expect(await drafts.linkedTo('n2')).toBeUndefined();
+    });
+
+    it('labels a copy after its title and finds it again by text and label', async () => {
+      const copy = await drafts.create('title Core\n', undefined, { label: 'revision 2' });
+      expect(copy.title).toBe('Core (revision 2)');
+      now += 10;
+      await drafts.save(copy.id, 'title Core tuned\n');
+      expect(drafts.list()[0].title).toBe('Core tuned (revision 2)');
+      expect(await drafts.findCopy('title Core tuned\n', 'revision 2')).toMatchObject({ id: copy.id });
+      expect(await drafts.findCopy('title Core tuned\n', 'revision 3')).toBeUndefined();
+    });
+
+    it('survives a round trip through storage as plain data (structured clone)', async () => {
+      const d = await drafts.create('title Core\n', undefined, { remote });
+      const stored = await backend.get(d.id);
+      expect(structuredClone(stored)).toEqual(stored);
+    });
   });
 
   it('says so when storage fails, instead of throwing into the bench', async () => {

@@ -1,7 +1,9 @@
 /**
  * Drafts: netlists kept in this browser (IndexedDB through Dexie), so work survives a reload, a
  * closed tab and a stopped server. Each draft is one netlist text with a title read from its
- * `title` line; the bench autosaves into the draft it has open and reopens the last one.
+ * `title` line; the bench autosaves into the draft it has open and reopens the last one. A draft
+ * opened from the team server stays linked to its netlist (`remote`), with the version it is
+ * based on, so it can be saved back — or kept safely here while the server cannot be reached.
  *
  * The logic (titles, ordering, pruning, last-opened) sits over a small storage interface so it
  * can be tested without a browser; the Dexie backend is the real one.
@@ -9,15 +11,43 @@
 import { Injectable, InjectionToken, inject, signal } from '@angular/core';
 import Dexie, { type Table } from 'dexie';
 
+/**
+ * The team netlist a draft is linked to. `savedText` is the text of `baseVersion` on the server,
+ * so the bench can tell whether the draft has changes not yet saved to the team without asking.
+ */
+export interface DraftRemote {
+  netlistId: string;
+  /** Slug of the netlist's workspace (the role there decides whether it may be saved). */
+  workspace: string;
+  /** The netlist's name on the server. */
+  name: string;
+  /** The server version this draft's text was last in step with. */
+  baseVersion: number;
+  /** The text of `baseVersion`. */
+  savedText: string;
+}
+
 export interface Draft {
   id: string;
-  /** From the netlist's `title` line, else the file name it came from, else "Untitled netlist". */
+  /** From the netlist's `title` line, else the file name it came from, else "Untitled netlist"; then ` (label)`. */
   title: string;
   text: string;
   /** The file it was opened from, when it was. */
   fileName?: string;
+  /** A note kept after the title, e.g. "revision 3" or "my version before conflict". */
+  label?: string;
+  /** The team netlist this draft saves to, when linked. */
+  remote?: DraftRemote;
   createdAt: number;
   updatedAt: number;
+}
+
+/**
+ * What may change besides the text. A key left out keeps what the draft has; `null` removes it.
+ */
+export interface DraftMeta {
+  label?: string | null;
+  remote?: DraftRemote | null;
 }
 
 /** Where drafts are stored. */
@@ -35,6 +65,7 @@ class DraftDatabase extends Dexie {
   meta!: Table<{ key: string; value: string }, string>;
   constructor() {
     super('nodewright-drafts');
+    // `label` and `remote` are not indexed, so they need no new schema version.
     this.version(1).stores({ drafts: 'id, updatedAt', meta: 'key' });
   }
 }
@@ -100,6 +131,12 @@ export const MAX_DRAFTS = 100;
 const LAST_OPENED = 'last-opened-draft';
 export const UNTITLED = 'Untitled netlist';
 
+/** The title shown for a draft: the netlist's own title, then its label in parentheses. */
+export function draftTitle(text: string, fallback = UNTITLED, label?: string): string {
+  const title = titleOf(text, fallback);
+  return label ? `${title} (${label})` : title;
+}
+
 /** The title a netlist gives itself: its first `title` line, trimmed of a trailing comment. */
 export function titleOf(text: string, fallback = UNTITLED): string {
   for (const line of text.split('\n')) {
@@ -110,6 +147,22 @@ export function titleOf(text: string, fallback = UNTITLED): string {
     }
   }
   return fallback;
+}
+
+/** Applies `meta` to a draft and recomputes its title. */
+function withMeta(draft: Draft, meta: DraftMeta): Draft {
+  const next: Draft = { ...draft };
+  if (meta.label === null) delete next.label;
+  else if (meta.label !== undefined) next.label = meta.label;
+  if (meta.remote === null) delete next.remote;
+  else if (meta.remote !== undefined) next.remote = { ...meta.remote };
+  next.title = draftTitle(next.text, next.fileName ?? UNTITLED, next.label);
+  return next;
+}
+
+function sameRemote(a: DraftRemote | undefined, b: DraftRemote | undefined): boolean {
+  if (!a || !b) return a === b;
+  return a.netlistId === b.netlistId && a.workspace === b.workspace && a.name === b.name && a.baseVersion === b.baseVersion && a.savedText === b.savedText;
 }
 
 function newId(): string {
@@ -131,10 +184,10 @@ export class Drafts {
     return all;
   }
 
-  /** A new draft with this text. */
-  async create(text: string, fileName?: string): Promise<Draft> {
+  /** A new draft with this text (linked to a team netlist or labelled when `meta` says so). */
+  async create(text: string, fileName?: string, meta: DraftMeta = {}): Promise<Draft> {
     const t = this.now();
-    const draft: Draft = { id: newId(), title: titleOf(text, fileName ?? UNTITLED), text, ...(fileName ? { fileName } : {}), createdAt: t, updatedAt: t };
+    const draft = withMeta({ id: newId(), title: '', text, ...(fileName ? { fileName } : {}), createdAt: t, updatedAt: t }, meta);
     await this.guard(() => this.backend.put(draft), undefined);
     await this.guard(() => this.backend.setMeta(LAST_OPENED, draft.id), undefined);
     await this.prune();
@@ -142,14 +195,15 @@ export class Drafts {
     return draft;
   }
 
-  /** Saves new text into a draft (creating it again if it was deleted meanwhile). */
-  async save(id: string, text: string): Promise<Draft> {
+  /**
+   * Saves new text (and, when given, a new team link or label) into a draft — creating it again
+   * if it was deleted meanwhile, link included, so neither the text nor its base version is lost.
+   */
+  async save(id: string, text: string, meta: DraftMeta = {}): Promise<Draft> {
     const old = await this.guard(() => this.backend.get(id), undefined);
     const t = this.now();
-    const draft: Draft = old
-      ? { ...old, text, title: titleOf(text, old.fileName ?? UNTITLED), updatedAt: Math.max(t, old.updatedAt) }
-      : { id, text, title: titleOf(text), createdAt: t, updatedAt: t };
-    if (old && old.text === text) return old;
+    const draft = withMeta(old ? { ...old, text, updatedAt: Math.max(t, old.updatedAt) } : { id, text, title: '', createdAt: t, updatedAt: t }, meta);
+    if (old && old.text === text && old.title === draft.title && sameRemote(old.remote, draft.remote)) return old;
     await this.guard(() => this.backend.put(draft), undefined);
     await this.refresh();
     return draft;
@@ -166,6 +220,18 @@ export class Drafts {
   async lastOpened(): Promise<Draft | undefined> {
     const id = await this.guard(() => this.backend.getMeta(LAST_OPENED), undefined);
     return id ? this.guard(() => this.backend.get(id), undefined) : undefined;
+  }
+
+  /** The draft linked to team netlist `netlistId`, if there is one (the most recently changed). */
+  async linkedTo(netlistId: string): Promise<Draft | undefined> {
+    const all = await this.guard(() => this.backend.all(), []);
+    return all.filter((d) => d.remote?.netlistId === netlistId).sort((a, b) => b.updatedAt - a.updatedAt)[0];
+  }
+
+  /** An unlinked draft with exactly this text and label (so opening the same revision twice reuses it). */
+  async findCopy(text: string, label: string): Promise<Draft | undefined> {
+    const all = await this.guard(() => this.backend.all(), []);
+    return all.find((d) => !d.remote && d.label === label && d.text === text);
   }
 
   async remove(id: string): Promise<void> {

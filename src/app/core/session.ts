@@ -17,7 +17,8 @@ export function roleAtLeast(role: Role | undefined, needed: Role): boolean {
 
 /** The server route that starts sign-in and comes back to `next` (a path of this app). */
 export function signInUrl(next: string, invite?: string): string {
-  const params = new URLSearchParams({ next: next.startsWith('/') ? next : '/' });
+  // "//host" and "/\host" are read by browsers as another site: only plain paths come back here.
+  const params = new URLSearchParams({ next: /^\/(?![/\\])/.test(next) ? next : '/' });
   if (invite) params.set('invite', invite);
   return `/auth/sign-in?${params}`;
 }

@@ -40,6 +40,24 @@ async function mount() {
 }
 
 describe('NetlistEditor', () => {
+  it('shows a read-only document that cannot be edited but can be reached from the keyboard', async () => {
+    @Component({
+      imports: [NetlistEditor],
+      changeDetection: ChangeDetectionStrategy.OnPush,
+      template: `<nw-netlist-editor [document]="{ key: 1, text: 'title Shared\\n' }" [readOnly]="true" label="Shared netlist" />`,
+    })
+    class ReadOnlyHost {}
+    const fixture = TestBed.createComponent(ReadOnlyHost);
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    const view = EditorView.findFromDOM(el.querySelector('.cm-editor') as HTMLElement)!;
+    expect(view.state.readOnly).toBe(true);
+    const content = el.querySelector('.cm-content') as HTMLElement;
+    expect(content.getAttribute('contenteditable')).toBe('false');
+    expect(content.getAttribute('tabindex')).toBe('0');
+    expect(content.getAttribute('aria-label')).toBe('Shared netlist');
+  });
+
   it('shows the document with line numbers and an accessible name', async () => {
     const { el, view } = await mount();
     expect(view.state.doc.toString()).toContain('q1: npn(c=outa');

@@ -60,6 +60,11 @@ export class NetlistEditor {
   readonly reveal = input<RevealRequest | undefined>(undefined);
   /** Accessible name of the text area. */
   readonly label = input('Netlist');
+  /**
+   * Shows the text without letting it be changed (the shared view). Read when the editor is
+   * created; the text can still be selected, copied and scrolled from the keyboard.
+   */
+  readonly readOnly = input(false);
 
   readonly textChange = output<string>();
   readonly command = output<EditorCommand>();
@@ -150,7 +155,16 @@ export class NetlistEditor {
       this.command.emit(cmd);
       return true;
     };
+    const readOnly = untracked(this.readOnly);
     return [
+      ...(readOnly
+        ? [
+            EditorState.readOnly.of(true),
+            EditorView.editable.of(false),
+            // Not editable means not focusable by default; keep it reachable for reading and copying.
+            EditorView.contentAttributes.of({ tabindex: '0', 'aria-readonly': 'true' }),
+          ]
+        : []),
       lineNumbers(),
       highlightActiveLineGutter(),
       history(),
@@ -161,7 +175,7 @@ export class NetlistEditor {
       lintGutter(),
       nodewright(),
       autocompletion({ override: [netlistCompletion(() => untracked(this.names))], icons: false }),
-      placeholder('Write a netlist here, or pick an example from the menu above.'),
+      readOnly ? [] : placeholder('Write a netlist here, or pick an example from the menu above.'),
       keymap.of([
         { key: 'Mod-Enter', run: run('solve'), preventDefault: true },
         { key: 'Mod-s', run: run('save'), preventDefault: true },
@@ -182,7 +196,7 @@ export class NetlistEditor {
         }
         if (update.selectionSet || update.docChanged) this.cursorLine.emit(update.state.doc.lineAt(update.state.selection.main.head).number);
       }),
-      EditorView.domEventHandlers({
+      readOnly ? [] : EditorView.domEventHandlers({
         dragover: (event) => {
           if (!event.dataTransfer?.types.includes('Files')) return false;
           event.preventDefault();

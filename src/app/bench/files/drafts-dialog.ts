@@ -4,7 +4,10 @@
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { Drafts } from '../../core/drafts';
+import { Drafts, type Draft } from '../../core/drafts';
+import { timeAgo } from '../time-ago';
+
+export { timeAgo };
 
 export interface DraftsDialogData {
   currentId?: string;
@@ -14,20 +17,6 @@ export interface DraftsDialogData {
 export interface DraftsDialogResult {
   open?: string;
   deleted: string[];
-}
-
-/** "3 min ago", "yesterday", "12 Mar" — how long ago a draft changed. */
-export function timeAgo(then: number, now = Date.now()): string {
-  const s = Math.max(0, Math.round((now - then) / 1000));
-  if (s < 45) return 'just now';
-  const m = Math.round(s / 60);
-  if (m < 60) return `${m} min ago`;
-  const h = Math.round(m / 60);
-  if (h < 24) return `${h} h ago`;
-  const d = Math.round(h / 24);
-  if (d === 1) return 'yesterday';
-  if (d < 7) return `${d} days ago`;
-  return new Date(then).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: d > 300 ? 'numeric' : undefined });
 }
 
 @Component({
@@ -44,9 +33,9 @@ export function timeAgo(then: number, now = Date.now()): string {
         <ul class="list">
           @for (d of shown(); track d.id) {
             <li [class.current]="d.id === data.currentId">
-              <button type="button" class="open" (click)="open(d.id)" [attr.aria-label]="'Open ' + d.title + ', changed ' + ago(d.updatedAt)">
+              <button type="button" class="open" (click)="open(d.id)" [attr.aria-label]="'Open ' + d.title + ', changed ' + ago(d.updatedAt) + (d.remote ? ', linked to a team netlist' : '')">
                 <span class="t">{{ d.title }}</span>
-                <span class="meta">{{ ago(d.updatedAt) }}@if (d.fileName) { · {{ d.fileName }} }@if (d.id === data.currentId) { · open now }</span>
+                <span class="meta">{{ meta(d) }}</span>
               </button>
               <button mat-button type="button" class="delete" (click)="remove(d.id)" [attr.aria-label]="'Delete the draft ' + d.title">Delete</button>
             </li>
@@ -93,6 +82,15 @@ export class DraftsDialog {
 
   protected ago(t: number): string {
     return timeAgo(t);
+  }
+
+  /** "3 min ago · bridge.nwl · team “Core” v3, changes not saved to the team · open now". */
+  protected meta(d: Draft): string {
+    const parts = [this.ago(d.updatedAt)];
+    if (d.fileName) parts.push(d.fileName);
+    if (d.remote) parts.push(`team “${d.remote.name}” v${d.remote.baseVersion}${d.text !== d.remote.savedText ? ', changes not saved to the team' : ''}`);
+    if (d.id === this.data.currentId) parts.push('open now');
+    return parts.join(' · ');
   }
 
   protected open(id: string): void {
