@@ -10,7 +10,7 @@
  * `internal-error` diagnostic and a final pass replaces any non-finite number with 0 and reports it.
  */
 import type { AcRequest, AnalysisRequest, Requests, TransferRequest } from './circuit/analyses';
-import type { Diagnostic, SourceLoc } from './circuit/diagnostic';
+import { tidyDiagnostic, type Diagnostic, type SourceLoc } from './circuit/diagnostic';
 import type { Circuit, Part } from './circuit/types';
 import type { AcResult, Curve, SolveResult, TransferResult } from './result';
 import type { AcSolution, AcSolver, Excitation, OperatingPoint, Phasor } from './analysis/engine-api';
@@ -52,7 +52,11 @@ export function solveNetlist(text: string, options: SolveOptions = {}): SolveRes
     result = emptyResult('', 27);
     result.errors.push(diag('error', 'internal-error', { line: 1, col: 1 }, `The solver hit an internal error: ${message}.`, 'this is a bug in Nodewright; please report it with the netlist'));
   }
-  return sanitize(result);
+  const clean = sanitize(result);
+  // Every message leaves through the one helper that shortens long user tokens.
+  clean.errors = clean.errors.map(tidyDiagnostic);
+  clean.warnings = clean.warnings.map(tidyDiagnostic);
+  return clean;
 }
 
 function emptyResult(title: string, tempC: number): SolveResult {
@@ -104,10 +108,13 @@ export function solveCircuit(circuit: Circuit, requests: Requests): CircuitRun {
 
   const system = linearize(circuit, op);
   const solver = createAcSolver(system);
-  const ctx: MeasureContext = { op: op.report, params: requests.params, linear: { system, solver } };
+  // Requests that failed (reported on their own lines): measures that need them stay silent.
+  const failed = new Set(requests.failed ?? []);
+  const ctx: MeasureContext = { op: op.report, params: requests.params, linear: { system, solver }, failed };
 
   const acRequest = firstOfKind(requests.analyses, 'ac', diagnostics) as AcRequest | undefined;
   const sweep = acRequest ? acFrequencies(acRequest, diagnostics) : undefined;
+  if (acRequest && !sweep) failed.add('ac');
 
   let ports: PortsOutcome | undefined;
   if (requests.ports) {
@@ -116,7 +123,7 @@ export function solveCircuit(circuit: Circuit, requests: Requests): CircuitRun {
     if (ports.result && ports.adm && ports.acm) {
       result.ports = ports.result;
       ctx.ports = { adm: ports.adm, acm: ports.acm, cmrr: ports.result.cmrr, cmrrDb: ports.result.cmrr_db, atHz: ports.result.at_hz };
-    }
+    } else failed.add('ports');
   }
 
   if (acRequest && sweep) {

@@ -62,11 +62,17 @@ export interface NewtonOutcome {
   diverged: boolean;
 }
 
+/** Something that watches each iteration's device state (to name what failed to settle). */
+export interface IterationWatch {
+  record(): void;
+}
+
 /**
  * Runs Newton from `x` (updated in place; on success it holds the solution) with the linear part
  * last {@link NewtonWorkspace.prepare}d. Never throws; a non-finite iterate ends the attempt.
+ * `watch`, when given, is told after the devices are linearised in each iteration.
  */
-export function runNewton(ws: NewtonWorkspace, x: Float64Array, maxIter: number): NewtonOutcome {
+export function runNewton(ws: NewtonWorkspace, x: Float64Array, maxIter: number, watch?: IterationWatch): NewtonOutcome {
   const { n, a, b, residual, scale, update, lu } = ws;
   const { relTol, absTol } = ws.circuit.options;
   let updateSmall = false;
@@ -74,6 +80,7 @@ export function runNewton(ws: NewtonWorkspace, x: Float64Array, maxIter: number)
     a.set(ws.aLin);
     b.set(ws.bLin);
     const limited = ws.devices.stamp(x, a, b, true);
+    watch?.record();
     // Residual of the nonlinear equations at x (exact when nothing was limited).
     let balanced = true;
     for (let i = 0; i < n; i++) {

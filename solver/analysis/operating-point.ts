@@ -1,6 +1,7 @@
 /**
  * The DC operating point: Newton–Raphson with junction limiting, then gmin stepping, then
- * source stepping, each bounded; a clean OpFailure naming the worst nodes when all fail.
+ * source stepping, each bounded; when all fail, a clean OpFailure naming the nodes and devices
+ * that failed to settle.
  *
  * gmin stepping (a conductance from every node to ground, started large and lowered a decade at
  * a time, each solve warm-started from the last) and source stepping (all independent sources
@@ -10,7 +11,9 @@ import type { Diagnostic, SourceLoc } from '../circuit/diagnostic';
 import type { Circuit } from '../circuit/types';
 import type { OperatingPoint, OpFailure } from './engine-api';
 import { buildLayout, partNodes, type MnaLayout } from './mna';
-import { NewtonWorkspace, runNewton } from './newton';
+import { NewtonWorkspace, runNewton, type IterationWatch } from './newton';
+import { SettleWatch, unbalancedNodes, type Unbalanced, type Unsettled } from './settle-watch';
+import { formatSi } from '../report/si-format';
 import { buildOpReport, reportIsFinite } from './op-report';
 
 /** First conductance of gmin stepping, in S. */
@@ -32,7 +35,11 @@ interface Attempts {
   newtonIterations: number;
   gminReached?: number;
   sourceReached?: number;
-  worst: { row: number; update: number; residual: number }[];
+  /** At the end of plain Newton (the full problem): nodes out of balance, devices still moving. */
+  unbalanced: Unbalanced[];
+  unsettled: Unsettled[];
+  /** Rows with the largest last step, for when no node is out of balance. */
+  moving: { row: number; update: number }[];
   singularRow: number;
 }
 
@@ -58,12 +65,12 @@ export function solveWithWorkspace(ws: NewtonWorkspace, start?: OpStart): Operat
   const gminFinal = Number.isFinite(minG) && minG > 0 ? minG : 0;
   const x = new Float64Array(n);
   let total = 0;
-  const attempts: Attempts = { newtonIterations: 0, worst: [], singularRow: -1 };
+  const attempts: Attempts = { newtonIterations: 0, unbalanced: [], unsettled: [], moving: [], singularRow: -1 };
   const budget = Math.min(TOTAL_ITER_BUDGET, 20 * iterLimit + 1000);
   const stepLimit = Math.min(iterLimit, STEP_ITER_LIMIT);
   /** One bounded Newton run; out of budget counts as not converged. */
-  const newton = (limit: number) => {
-    const result = runNewton(ws, x, Math.max(0, Math.min(limit, budget - total)));
+  const newton = (limit: number, watch?: IterationWatch) => {
+    const result = runNewton(ws, x, Math.max(0, Math.min(limit, budget - total)), watch);
     total += result.iterations;
     return result;
   };
@@ -76,11 +83,14 @@ export function solveWithWorkspace(ws: NewtonWorkspace, start?: OpStart): Operat
     ws.devices.initialGuess();
   }
   ws.prepare(1, gminFinal);
-  let out = newton(iterLimit);
+  const watch = ws.devices.count > 0 ? settleWatch(ws) : undefined;
+  let out = newton(iterLimit, watch);
   attempts.newtonIterations = out.iterations;
   attempts.singularRow = out.singularRow;
-  attempts.worst = worstRows(ws);
   if (out.converged) return success(ws, x, 'newton', total);
+  attempts.unbalanced = unbalancedNodes(ws, layout);
+  attempts.unsettled = watch?.unsettled() ?? [];
+  attempts.moving = movingRows(ws);
 
   // 2. gmin stepping from GMIN_START down to min_g, a decade at a time (finer after a failure).
   {
@@ -146,6 +156,19 @@ export function solveWithWorkspace(ws: NewtonWorkspace, start?: OpStart): Operat
   return failure(ws, layout, attempts, iterLimit, gminFinal);
 }
 
+/** One watch per workspace, reused by every solve on it (a DC sweep solves thousands of points). */
+const watches = new WeakMap<NewtonWorkspace, SettleWatch>();
+
+function settleWatch(ws: NewtonWorkspace): SettleWatch {
+  let watch = watches.get(ws);
+  if (!watch) {
+    watch = new SettleWatch(ws);
+    watches.set(ws, watch);
+  }
+  watch.reset();
+  return watch;
+}
+
 /** Builds the OperatingPoint from a converged x (checked finite). */
 function success(ws: NewtonWorkspace, x: Float64Array, method: string, iterations: number): OperatingPoint | OpFailure {
   const { report, warnings } = buildOpReport(ws.circuit, ws.layout, ws.devices, x);
@@ -164,17 +187,24 @@ function success(ws: NewtonWorkspace, x: Float64Array, method: string, iteration
   };
 }
 
-/** The rows with the largest voltage update, with their residuals, from the last Newton iterate. */
-function worstRows(ws: NewtonWorkspace): Attempts['worst'] {
-  const rows: Attempts['worst'] = [];
+/** The voltage rows with the largest non-zero last step, largest first. */
+function movingRows(ws: NewtonWorkspace): Attempts['moving'] {
+  const rows: Attempts['moving'] = [];
   for (let i = 0; i < ws.layout.voltageCount; i++) {
     const update = ws.update[i];
-    const residual = ws.residual[i];
-    if (Number.isFinite(update) || Number.isFinite(residual)) rows.push({ row: i, update, residual });
+    if (Number.isFinite(update) && update !== 0) rows.push({ row: i, update });
   }
-  const weight = (r: Attempts['worst'][number]) => Math.abs(r.update) + Math.abs(r.residual) * 1e3;
-  rows.sort((a, b) => weight(b) - weight(a));
-  return rows.slice(0, 3);
+  return rows.sort((a, b) => Math.abs(b.update) - Math.abs(a.update)).slice(0, 3);
+}
+
+/** How a row's node reads in a message: its name, or what an internal node belongs to. */
+function nodeLabel(name: string): string {
+  return name.endsWith(':base') ? `the internal base of ${name.slice(0, -5)}` : name;
+}
+
+/** "a, b and c". */
+function listOf(items: string[]): string {
+  return items.length <= 1 ? items.join('') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
 }
 
 function failure(ws: NewtonWorkspace, layout: MnaLayout, a: Attempts, iterLimit: number, gminFinal: number): OpFailure {
@@ -188,19 +218,32 @@ function failure(ws: NewtonWorkspace, layout: MnaLayout, a: Attempts, iterLimit:
         'give every node a DC path to ground and break loops of voltage sources')],
     };
   }
-  const fmt = (v: number) => (Number.isFinite(v) ? v.toPrecision(3) : 'non-finite');
-  const worst = a.worst.map((w) => `${layout.rowNames[w.row]} (last step ${fmt(w.update)} V, residual ${fmt(w.residual)} A)`);
   const tried = [
     `Newton–Raphson (${a.newtonIterations} of ${iterLimit} iterations)`,
     `gmin stepping from ${GMIN_START} S to ${gminFinal} S${a.gminReached !== undefined ? ` (converged down to ${a.gminReached.toPrecision(2)} S)` : ' (no step converged)'}`,
     `source stepping 0 → 100 %${a.sourceReached !== undefined ? ` (reached ${(a.sourceReached * 100).toFixed(1)} %)` : ' (no step converged)'}`,
   ];
-  const worstNames = a.worst.map((w) => layout.rowNames[w.row]);
+  // What failed to settle, in the designer's terms: nodes whose currents do not add up, devices
+  // whose junctions kept swinging; without either, the nodes that moved most in the last step.
+  const findings: string[] = [];
+  if (a.unbalanced.length > 0) {
+    findings.push(`the currents do not add up at ${listOf(a.unbalanced.map((u) => `${nodeLabel(u.name)} (${formatSi(Math.abs(u.residual), 'A', 3)} left over)`))}`);
+  }
+  if (a.unsettled.length > 0) {
+    findings.push(`${listOf(a.unsettled.map((d) => `${d.name} (${d.junction} swinging by ${formatSi(d.swing, 'V', 3)})`))} kept moving`);
+  }
+  if (findings.length === 0 && a.moving.length > 0) {
+    findings.push(`the nodes ${listOf(a.moving.map((m) => `${nodeLabel(layout.rowNames[m.row])} (last step ${formatSi(m.update, 'V', 3)})`))} were still moving`);
+  }
+  const where = findings.length > 0 ? `: ${findings.join(', and ')}` : '';
+  const firstNode = a.unbalanced[0]?.name ?? (a.moving[0] ? layout.rowNames[a.moving[0].row] : undefined);
+  const loc = a.unsettled[0]?.loc ?? locOfRow(circuit, firstNode?.endsWith(':base') ? firstNode.slice(0, -5) : firstNode);
+  const suspects = [...a.unsettled.map((d) => d.name), ...a.unbalanced.map((u) => nodeLabel(u.name))];
   return {
     failed: true,
-    errors: [error('op-no-convergence', locOfRow(circuit, worstNames[0]),
-      `The DC operating point did not converge; worst nodes: ${worst.join(', ') || 'none'}. Tried ${tried.join(', then ')}.`,
-      'check the bias of the devices at those nodes, or raise max_iter')],
+    errors: [error('op-no-convergence', loc,
+      `The DC operating point did not converge${where}; tried ${tried.join(', then ')}.`,
+      suspects.length > 0 ? `check the bias around ${listOf(suspects.slice(0, 4))}, or raise max_iter` : 'check the bias of the devices, or raise max_iter')],
   };
 }
 

@@ -68,4 +68,9 @@ export interface Requests {
   checks: CheckRequest[];
   /** `param` values after evaluation, for measures that use them. */
   params: Record<string, number>;
+  /**
+   * Requests that were written but could not be used, already reported (`'ac'`, `'ports'`, …):
+   * a measure that needs one of them fails silently instead of saying it is missing.
+   */
+  failed?: string[];
 }

@@ -27,6 +27,34 @@ export interface SourceLoc {
   endCol?: number;
 }
 
+/** A run of name or number characters longer than this is shortened in messages. */
+export const LONG_TOKEN = 40;
+/** How much of a shortened token a message keeps (then "…"). */
+export const SHORT_TOKEN = 24;
+
+const LONG_RUN = new RegExp(`[\\p{L}\\p{N}_.]{${LONG_TOKEN + 1},}`, 'gu');
+
+/**
+ * User text as a message quotes it: every name- or number-like run longer than LONG_TOKEN
+ * characters shortened to its first SHORT_TOKEN characters and "…". A 500-character node name
+ * must not push the one sentence of a message off the problems list, while names of ordinary
+ * length (hierarchical ones included) stay whole so that "did you mean" remains usable.
+ */
+export function shortenTokens(text: string): string {
+  return text.replace(LONG_RUN, (run) => Array.from(run).slice(0, SHORT_TOKEN).join('') + '\u2026');
+}
+
+/**
+ * The diagnostic as it leaves the solver: message and hint with long tokens shortened. Applied
+ * where diagnostics leave parseNetlist and solveNetlist, so every message that quotes user text
+ * goes through the one helper whatever layer wrote it.
+ */
+export function tidyDiagnostic(d: Diagnostic): Diagnostic {
+  const message = shortenTokens(d.message);
+  const hint = d.hint === undefined ? undefined : shortenTokens(d.hint);
+  return message === d.message && hint === d.hint ? d : { ...d, message, ...(hint !== undefined ? { hint } : {}) };
+}
+
 /** Collects diagnostics; never throws. */
 export class DiagnosticBag {
   readonly items: Diagnostic[] = [];

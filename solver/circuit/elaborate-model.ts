@@ -16,6 +16,7 @@ export interface ModelContext {
 
 /** Evaluates one model statement; 'failed' when its kind is unknown. */
 export function evaluateModel(stmt: ModelStmt, ctx: ModelContext): ResolvedModel | 'failed' {
+  if (stmt.broken) return 'failed';
   const kind = stmt.deviceKind.text;
   const family = modelFamily(kind);
   if (!family) {

@@ -55,6 +55,8 @@ export function resolvePins(
       return undefined;
     }
     if (positional.length !== pins.length) {
+      // A broken list already said what is wrong with it; counting what is left adds nothing.
+      if (stmt.connsBroken) return undefined;
       ctx.report('error', 'pin-count', stmt.connsLoc, `\`${label}\` takes ${pins.length} connections (${pins.join(', ')}); ${positional.length} given.`);
       return undefined;
     }
@@ -72,6 +74,9 @@ export function resolvePins(
       ok = false;
     } else result.set(pin.text, c.node);
   }
+  // A misspelt, repeated or empty pin is one mistake: the pin it leaves unconnected is the same
+  // mistake, not a second one, so "missing pin" is said only when the list is otherwise clean.
+  if (!ok || stmt.connsBroken) return undefined;
   for (const p of pins) {
     if (!result.has(p) && !optional[p]) {
       ctx.report('error', 'missing-pin', stmt.connsLoc, `\`${stmt.name.text}\` has no connection for its pin \`${p}\`.`, `add ${p}=NODE`);
@@ -142,7 +147,8 @@ export function buildPart(ctx: PartContext, stmt: PartStmt, spec: PartKindSpec):
     mainValue = ctx.evaluate(stmt.main, spec.main.unit, `the ${spec.main.what} of \`${name}\``, spec.main.range);
   } else if (spec.main.optional) {
     mainValue = 0;
-  } else {
+  } else if (stmt.connsBroken !== 'unclosed') {
+    // An unclosed connection list swallows the value: that is one mistake, already reported.
     ctx.report('error', 'missing-value', stmt.connsLoc, `\`${name}\` has no ${spec.main.what}.`, `write it after the connections, e.g. \`${stmt.name.text}: ${spec.kind}(…) ${spec.kind === 'res' ? '1k' : spec.kind === 'cap' ? '1p' : spec.kind === 'ind' ? '1u' : '1'}\``);
   }
   if (!pins) return undefined;

@@ -38,6 +38,8 @@ export interface Elaboration {
   brokenNodes: Set<string>;
   /** Every flattened part name written, including parts that could not be built. */
   attemptedParts: Set<string>;
+  /** Block instances that could not be expanded (reported): names inside them are not unknown. */
+  brokenInstances: Set<string>;
   /** Models and blocks visible at the top level, for completion. */
   modelNames: string[];
   blocks: BlockDef[];
@@ -120,6 +122,8 @@ class Elaborator {
   readonly brokenNodes = new Set<string>();
   /** Every flattened part name written, built or not. */
   readonly attemptedParts = new Set<string>();
+  /** Instances of unknown, failed or recursive blocks. */
+  readonly brokenInstances = new Set<string>();
 
   mainSink: Sink | undefined;
 
@@ -284,6 +288,12 @@ class Elaborator {
     for (const c of stmt.conns) this.brokenNodes.add(this.node(frame, c.node.text));
   }
 
+  /** An instance whose block could not be expanded: its inner names exist only as intended. */
+  private markBrokenInstance(frame: Frame, stmt: PartStmt): void {
+    this.markBroken(frame, stmt);
+    this.brokenInstances.add(frame.prefix + stmt.name.text);
+  }
+
   private elaboratePart(frame: Frame, stmt: PartStmt, sink: Sink): void {
     const kind = stmt.partKind.text;
     const spec = Object.prototype.hasOwnProperty.call(PART_KINDS, kind) ? PART_KINDS[kind as PartKind] : undefined;
@@ -304,7 +314,7 @@ class Elaborator {
       this.instantiate(frame, stmt, block, sink);
       return;
     }
-    this.markBroken(frame, stmt);
+    this.markBrokenInstance(frame, stmt);
     if (this.options.failedBlocks?.has(kind)) return; // its `use` line already says why
     const isModel = this.lookupModel(frame, kind);
     const hint = isModel && isModel !== 'failed'
@@ -342,12 +352,12 @@ class Elaborator {
   private instantiate(caller: Frame, stmt: PartStmt, def: BlockDef, sink: Sink): void {
     const chainNames = [...caller.chain, def].map((b) => b.name.text);
     if (caller.chain.includes(def)) {
-      this.markBroken(caller, stmt);
+      this.markBrokenInstance(caller, stmt);
       this.report(caller, 'error', 'recursive-block', stmt.partKind.loc, `The block \`${def.name.text}\` contains itself (${chainNames.join(' → ')}).`, 'a block cannot instantiate itself, directly or through another block');
       return;
     }
     if (caller.chain.length >= MAX_INSTANCE_DEPTH) {
-      this.markBroken(caller, stmt);
+      this.markBrokenInstance(caller, stmt);
       this.report(caller, 'error', 'recursive-block', stmt.partKind.loc, `Blocks are nested more than ${MAX_INSTANCE_DEPTH} instances deep.`);
       return;
     }
@@ -378,7 +388,11 @@ class Elaborator {
       const written = pins?.get(p);
       pinMap.set(p, written ? this.node(caller, written.text) : caller.prefix + stmt.name.text + '.' + p);
     }
-    if (!pins) this.markBroken(caller, stmt);
+    if (!pins) {
+      this.markBroken(caller, stmt);
+      // The instance's pins stand unconnected (already reported): no "no DC path" about them.
+      for (const node of pinMap.values()) this.brokenNodes.add(node);
+    }
     const lexical = this.lexicalFrame(caller, def);
     const frame: Frame = {
       file: def.file,
@@ -481,6 +495,7 @@ export function elaborate(file: FileUnit, bag: DiagnosticBag, options: Elaborate
     params: top.params.own,
     brokenNodes: e.brokenNodes,
     attemptedParts: e.attemptedParts,
+    brokenInstances: e.brokenInstances,
     modelNames: [...top.models.keys()],
     blocks,
   };

@@ -12,7 +12,7 @@ import type { Diagnostic, SourceLoc } from '../circuit/diagnostic';
 import type { CheckResult } from '../result';
 import { fromPhasor, measureFunctions, CURVE_FUNCTIONS, PORTS_CURVE_NAMES, type MeasureContext } from './functions';
 import { isEffectivelyReal } from './complex';
-import { MeasureError, didYouMean } from './measure-error';
+import { FollowOnError, MeasureError, didYouMean } from './measure-error';
 import { measureMath } from './math';
 import { evaluateCheck } from './checks';
 
@@ -66,16 +66,22 @@ function toMeasureValue(what: string, value: unknown): number {
   throw new MeasureError(`${what} is not a number.`);
 }
 
-/** mathjs messages for unknown names, rephrased with suggestions. */
-function explain(err: unknown, scopeNames: string[], functionNames: string[], failed: Map<string, number>): { message: string; hint?: string } {
+/**
+ * mathjs messages for unknown names, rephrased with suggestions; undefined for a follow-on of an
+ * error already reported (a failed measure, ac sweep or ports line), which says nothing more.
+ */
+function explain(
+  err: unknown, scopeNames: string[], functionNames: string[], failedMeasures: ReadonlySet<string>, failedRequests: ReadonlySet<string>,
+): { message: string; hint?: string } | undefined {
+  if (err instanceof FollowOnError) return undefined;
   if (err instanceof MeasureError) return { message: err.message, hint: err.hint };
   const text = err instanceof Error ? err.message : String(err);
   const symbol = /^Undefined symbol (\S+)/.exec(text);
   if (symbol) {
     const name = symbol[1];
-    const line = failed.get(name);
-    if (line !== undefined) return { message: `\`${name}\` has an error of its own (line ${line}).`, hint: `fix the measure \`${name}\` first` };
+    if (failedMeasures.has(name)) return undefined;
     if ((PORTS_CURVE_NAMES as readonly string[]).includes(name) || name === 'cmrr_db') {
+      if (failedRequests.has('ports')) return undefined;
       return { message: `\`${name}\` needs a \`ports\` statement.`, hint: 'add `ports in=(va, vb) out=(outa, outb)`' };
     }
     return { message: `unknown name \`${name}\`.`, hint: didYouMean(name, [...scopeNames, ...functionNames]) ?? 'names here are params, earlier measures, adm, acm, cmrr, cmrr_db' };
@@ -109,19 +115,26 @@ export function evaluateMeasures(measureRequests: MeasureRequest[], checkRequest
   setFunctions();
 
   const measures: Record<string, number> = {};
-  const failed = new Map<string, number>();
+  /** Measures that failed (reported once): what uses them stays silent. */
+  const failed = new Set<string>();
+  const failedRequests = ctx.failed ?? new Set<string>();
   const diagnostics: Diagnostic[] = [];
   const scopeNames = () => [...scope.keys()].filter((k) => typeof scope.get(k) !== 'function');
 
   const evaluate = (what: string, expr: string): number => {
     const node = markCurveNames(measureMath.parse(expr));
+    // A failed measure is absent from the scope, and mathjs would read a missing `g` or `h` as
+    // a unit (gram, hour): what uses a failed measure is its follow-on, said nothing about.
+    const uses = node.filter((n) => (n as unknown as { type: string }).type === 'SymbolNode');
+    const dependency = uses.find((n) => failed.has((n as unknown as { name: string }).name));
+    if (dependency) throw new FollowOnError(`the measure ${(dependency as unknown as { name: string }).name}`);
     return toMeasureValue(what, node.compile().evaluate(scope));
   };
 
   for (const m of measureRequests) {
     if (PORTS_NAMES.includes(m.name) || m.name in functions) {
       diagnostics.push(diagnostic(m.loc, `measure \`${m.name}\`: the name is taken by ${m.name in functions ? 'a function' : 'a ports figure'}.`, 'choose another name'));
-      failed.set(m.name, m.loc.line);
+      failed.add(m.name);
       continue;
     }
     try {
@@ -130,10 +143,12 @@ export function evaluateMeasures(measureRequests: MeasureRequest[], checkRequest
       failed.delete(m.name);
       scope.set(m.name, value);
     } catch (err) {
-      const { message, hint } = explain(err, scopeNames(), functionNames, failed);
-      const prefix = `measure ${m.name}: `;
-      diagnostics.push(diagnostic(m.loc, message.startsWith(prefix) ? message : prefix + message, hint));
-      failed.set(m.name, m.loc.line);
+      const why = explain(err, scopeNames(), functionNames, failed, failedRequests);
+      if (why) {
+        const prefix = `measure ${m.name}: `;
+        diagnostics.push(diagnostic(m.loc, why.message.startsWith(prefix) ? why.message : prefix + why.message, why.hint));
+      }
+      failed.add(m.name);
       scope.delete(m.name);
     }
   }
@@ -147,8 +162,8 @@ export function evaluateMeasures(measureRequests: MeasureRequest[], checkRequest
       if (typeof result === 'string') diagnostics.push(diagnostic(c.loc, `check ${c.text}: ${result}`));
       else checks.push(result);
     } catch (err) {
-      const { message, hint } = explain(err, scopeNames(), functionNames, failed);
-      diagnostics.push(diagnostic(c.loc, `check ${c.text}: ${message}`, hint));
+      const why = explain(err, scopeNames(), functionNames, failed, failedRequests);
+      if (why) diagnostics.push(diagnostic(c.loc, `check ${c.text}: ${why.message}`, why.hint));
     }
   }
   return { measures, checks, diagnostics };

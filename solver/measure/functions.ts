@@ -12,7 +12,7 @@ import type { Curve, OpResult } from '../result';
 import { csub, cx, decibels, isEffectivelyReal, magnitude, phaseDeg } from './complex';
 import { corner, curveFromPhasors, margin, unity, valueAt, type FreqCurve } from './curve';
 import { inputImpedance, outputImpedance } from './impedance';
-import { MeasureError, didYouMean } from './measure-error';
+import { FollowOnError, MeasureError, didYouMean } from './measure-error';
 import { measureMath } from './math';
 import { DEVICE_QUANTITIES, deviceQuantity, nodeVoltage, partCurrent } from './quantities';
 
@@ -26,6 +26,8 @@ export interface MeasureContext {
   ac?: { freqHz: number[]; portsCurves?: { adm: Curve; acm: Curve; cmrr: Curve }; solutions: AcSolution[] };
   /** The linearised circuit, for zin and zout. */
   linear?: { system: LinearSystem; solver: AcSolver };
+  /** Requests written but unusable, already reported (`'ac'`, `'ports'`): who needs them stays silent. */
+  failed?: ReadonlySet<string>;
 }
 
 /** The functions whose first argument names a curve; `adm`, `acm`, `cmrr` there mean their curves. */
@@ -65,6 +67,7 @@ function realNumber(fn: string, what: string, x: unknown): number {
 /** Builds the function table for one context. */
 export function measureFunctions(ctx: MeasureContext): Record<string, (...args: unknown[]) => unknown> {
   const needAc = (fn: string) => {
+    if (!ctx.ac && ctx.failed?.has('ac')) throw new FollowOnError('analyze ac');
     if (!ctx.ac) throw new MeasureError(`${fn}() needs an ac sweep.`, 'add `analyze ac from 10 Hz to 1 GHz per decade 20`');
     return ctx.ac;
   };
@@ -91,6 +94,7 @@ export function measureFunctions(ctx: MeasureContext): Record<string, (...args: 
     if (isFreqCurve(x)) return x;
     if (typeof x === 'string' && (PORTS_CURVE_NAMES as readonly string[]).includes(x)) {
       const ac = needAc(fn);
+      if ((!ctx.ports || !ac.portsCurves) && ctx.failed?.has('ports')) throw new FollowOnError('ports');
       if (!ctx.ports || !ac.portsCurves) throw new MeasureError(`${fn}(${x}) needs a \`ports\` statement.`, 'add `ports in=(va, vb) out=(outa, outb)`');
       return { name: x, freqHz: ac.freqHz, curve: ac.portsCurves[x as 'adm' | 'acm' | 'cmrr'] };
     }

@@ -10,6 +10,18 @@ export class MeasureError extends Error {
   }
 }
 
+/**
+ * A measure that cannot be evaluated because something it needs (an `analyze ac` or `ports`
+ * line, an earlier measure) already failed with an error of its own. The evaluator drops the
+ * measure or check without a further message: one mistake, one error.
+ */
+export class FollowOnError extends MeasureError {
+  constructor(what: string) {
+    super(`${what} failed earlier.`);
+    this.name = 'FollowOnError';
+  }
+}
+
 /** The closest of `candidates` to `name` by edit distance, when close enough to be a likely typo. */
 export function closestName(name: string, candidates: Iterable<string>): string | undefined {
   let best: string | undefined;

@@ -11,7 +11,8 @@ import { didYouMean } from './suggest';
 /** Most points any sweep may have: more is surely a typo and would stall the bench. */
 export const MAX_SWEEP_POINTS = 100_000;
 
-const ANALYSES = ['ac', 'transfer', 'vary', 'temp', 'noise', 'mismatch', 'poles'];
+/** The analyses of the language (§3). */
+export const ANALYSES = ['ac', 'transfer', 'vary', 'temp', 'noise', 'mismatch', 'poles'];
 /** Mismatch keys: what each 1-sigma spread applies to. */
 export const MISMATCH_KEYS = ['beta', 'is', 'va', 'vth', 'ucox', 'lambda', 'res', 'cap'];
 

@@ -30,7 +30,8 @@ export interface KeyValue {
 
 export interface ParamStmt { kind: 'param'; name: Name; value?: ValueText; loc: SourceLoc }
 export interface OptionStmt { kind: 'option'; name: Name; value?: ValueText; loc: SourceLoc }
-export interface ModelStmt { kind: 'model'; name: Name; deviceKind: Name; keys: KeyValue[]; loc: SourceLoc }
+/** `broken`: the line's shape was wrong (reported); the name stands for a failed model, so its users stay quiet. */
+export interface ModelStmt { kind: 'model'; name: Name; deviceKind: Name; keys: KeyValue[]; loc: SourceLoc; broken?: boolean }
 
 /** One connection: `node` (positional) or `pin=node` (named). */
 export interface Connection { pin?: Name; node: Name }
@@ -42,6 +43,11 @@ export interface PartStmt {
   conns: Connection[];
   /** Location of the connection list, for pin-count diagnostics. */
   connsLoc: SourceLoc;
+  /**
+   * The connection list had a syntax error (already reported): the pins it fails to connect are
+   * that one mistake, not a further "missing pin" each.
+   */
+  connsBroken?: 'syntax' | 'unclosed';
   main?: ValueText;
   keys: KeyValue[];
   loc: SourceLoc;

@@ -21,6 +21,15 @@ export const RESULT_FUNCTIONS = new Set([
   'id', 'vgs', 'vds', 'vov', 'gds', 'zin', 'zout', 'ac',
 ]);
 
+/**
+ * How many leading arguments of a result function are names (quoted); the rest are expressions.
+ * `v(a, b)` and `ac(a, b)` take two nodes; `zin(src, f)` and `zout(node, f)` one name and a
+ * frequency, which may be any expression (`zout(out, fhi)` with `param fhi = 1M`).
+ */
+export function nameSlots(fn: string): number {
+  return fn === 'v' || fn === 'ac' ? 2 : 1;
+}
+
 /** Functions a parameter expression may call. */
 export const PARAM_FUNCTIONS = new Set(['sqrt', 'exp', 'log', 'log10', 'pow', 'abs', 'min', 'max', 'sin', 'cos', 'tan']);
 /** Constants a parameter expression may use. */
@@ -39,6 +48,8 @@ export interface ExpressionProblem {
 export interface ResultCall {
   fn: string;
   offset: number;
+  /** Offset just past the closing `)` (the text's length when it is never closed). */
+  end: number;
   args: ({ name: string; offset: number } | { name?: undefined; offset: number })[];
 }
 
@@ -46,8 +57,8 @@ export interface RewrittenExpression {
   /** mathjs syntax. */
   expr: string;
   problems: ExpressionProblem[];
-  /** Bare identifiers (not quoted), with whether they are called as functions. */
-  identifiers: { name: string; offset: number; isCall: boolean }[];
+  /** Bare identifiers (not quoted), with whether they are called as functions and, if so, where the call ends. */
+  identifiers: { name: string; offset: number; isCall: boolean; callEnd?: number }[];
   calls: ResultCall[];
   /** The expression is exactly one quantity (possibly signed). */
   singleQuantity: boolean;
@@ -81,11 +92,14 @@ export function rewriteExpressionDetailed(
   }
   const quoted = new Set<number>();
   // Argument tracking for result functions: a stack of open parentheses.
-  const frames: { call?: ResultCall; argStart: number }[] = [];
+  const frames: { call?: ResultCall; argStart: number; fnStart?: number }[] = [];
+  /** Offset of a called name → offset just past its closing `)`. */
+  const callEnds = new Map<number, number>();
   const closeArg = (frame: { call?: ResultCall; argStart: number }, endIndex: number): void => {
     if (!frame.call) return;
     const first = tokens[frame.argStart];
-    if (endIndex - frame.argStart === 1 && first && first.type === 'ident' && options.quoteNames) {
+    const nameSlot = frame.call.args.length < nameSlots(frame.call.fn);
+    if (nameSlot && endIndex - frame.argStart === 1 && first && first.type === 'ident' && options.quoteNames) {
       quoted.add(frame.argStart);
       frame.call.args.push({ name: first.text, offset: first.start });
     } else if (endIndex > frame.argStart) {
@@ -98,10 +112,10 @@ export function rewriteExpressionDetailed(
       const prev = tokens[k - 1];
       let call: ResultCall | undefined;
       if (prev && prev.type === 'ident' && RESULT_FUNCTIONS.has(prev.text) && options.quoteNames) {
-        call = { fn: prev.text, offset: prev.start, args: [] };
+        call = { fn: prev.text, offset: prev.start, end: to, args: [] };
         calls.push(call);
       }
-      frames.push({ call, argStart: k + 1 });
+      frames.push({ call, argStart: k + 1, fnStart: prev?.type === 'ident' ? prev.start : undefined });
     } else if (t.type === 'punct' && t.text === ',') {
       const frame = frames[frames.length - 1];
       if (!frame) problems.push({ code: 'bad-expression', offset: t.start, length: 1, message: 'A `,` outside a function call.' });
@@ -112,7 +126,11 @@ export function rewriteExpressionDetailed(
     } else if (t.type === 'punct' && t.text === ')') {
       const frame = frames.pop();
       if (!frame) problems.push({ code: 'bad-expression', offset: t.start, length: 1, message: 'A `)` without its `(`.' });
-      else closeArg(frame, k);
+      else {
+        closeArg(frame, k);
+        if (frame.call) frame.call.end = t.end;
+        if (frame.fnStart !== undefined) callEnds.set(frame.fnStart, t.end);
+      }
     } else if (t.type === 'number') {
       const q = parseQuantity(t.text, options.expectedUnit, options.slot);
       if (!q.ok) problems.push({ code: q.code, offset: t.start + q.offset, length: q.length, message: q.message, hint: q.hint });
@@ -138,7 +156,8 @@ export function rewriteExpressionDetailed(
     } else {
       if (t.type === 'ident') {
         const next = tokens[k + 1];
-        identifiers.push({ name: t.text, offset: t.start, isCall: !!next && next.text === '(' });
+        const isCall = !!next && next.text === '(';
+        identifiers.push({ name: t.text, offset: t.start, isCall, ...(isCall ? { callEnd: callEnds.get(t.start) ?? to } : {}) });
       }
       expr += t.text;
     }

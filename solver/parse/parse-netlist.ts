@@ -4,7 +4,7 @@
  * the requests. Reports every problem at once; never throws, whatever the input.
  */
 import type { Requests } from '../circuit/analyses';
-import { DiagnosticBag, type Diagnostic, type SourceLoc } from '../circuit/diagnostic';
+import { DiagnosticBag, tidyDiagnostic, type Diagnostic, type SourceLoc } from '../circuit/diagnostic';
 import { elaborate, type Elaboration } from '../circuit/elaborate';
 import { checkTopology } from '../circuit/topology';
 import type { Circuit } from '../circuit/types';
@@ -148,11 +148,12 @@ class UseResolver {
   }
 }
 
-/** Sorted by position, duplicates (one block error seen through many instances) removed. */
+/** Sorted by position, long tokens shortened, duplicates (one block error seen through many instances) removed. */
 function finish(items: Diagnostic[]): Diagnostic[] {
   const seen = new Set<string>();
   const unique: Diagnostic[] = [];
-  for (const d of items) {
+  for (const raw of items) {
+    const d = tidyDiagnostic(raw);
     const key = `${d.severity}|${d.code}|${d.line}|${d.col}|${d.message}`;
     if (seen.has(key)) continue;
     seen.add(key);
@@ -197,6 +198,7 @@ export function parseNetlist(text: string, options: ParseOptions = {}): ParseRes
       nodes: new Set(elab.circuit.nodes),
       params: elab.params,
       attemptedParts: elab.attemptedParts,
+      brokenInstances: elab.brokenInstances,
       bag,
     });
   } catch (err) {

@@ -109,7 +109,9 @@ export function parseModelLine(ctx: LineContext): ModelStmt | undefined {
   }
   if (tokens[2]?.text !== ':' || !isPlainIdent(tokens[3])) {
     ctx.error('syntax', tokens[2] ?? tokens[1], `Expected \`: KIND(...)\` after the model name \`${tokens[1].text}\`.`, 'a model line reads `model NAME: KIND(key=value, ...)`');
-    return undefined;
+    // The name is known: parts that use it are not told again that it is unknown.
+    const name = ctx.name(tokens[1]);
+    return { kind: 'model', name, deviceKind: name, keys: [], loc: ctx.line.loc(tokens[0].start, tokens[0].end), broken: true };
   }
   const name = ctx.name(tokens[1]);
   const deviceKind = ctx.name(tokens[3]);
@@ -131,33 +133,41 @@ export function parseModelLine(ctx: LineContext): ModelStmt | undefined {
   return { kind: 'model', name, deviceKind, keys, loc: ctx.line.loc(tokens[0].start, tokens[0].end) };
 }
 
-/** Parses the connection list between `(` at `open` and `)` at `close`. */
-function parseConnections(ctx: LineContext, open: number, close: number): Connection[] {
+/**
+ * Parses the connection list between `(` at `open` and `)` at `close`; `broken` when it found a
+ * problem, which it reports unless `quiet` (a list that is never closed has said all there is).
+ */
+function parseConnections(ctx: LineContext, open: number, close: number, quiet = false): { conns: Connection[]; broken: boolean } {
   const { tokens } = ctx;
   const conns: Connection[] = [];
-  if (close === open + 1) return conns;
+  let broken = false;
+  const fail = (t: Token | undefined, code: string, message: string, hint?: string): void => {
+    if (!quiet) ctx.error(code, t, message, hint);
+    broken = true;
+  };
+  if (close === open + 1) return { conns, broken };
   for (const [a, b] of splitCommas(tokens, open + 1, close)) {
     if (a === b) {
-      ctx.error('syntax', tokens[a], 'An empty connection.', 'remove the extra `,`');
+      fail(tokens[a], 'syntax', 'An empty connection.', 'remove the extra `,`');
       continue;
     }
     const t0 = tokens[a];
     if (b - a === 1 && t0.type === 'ident') {
-      if (t0.text.includes('.')) ctx.error('syntax', t0, `\`${t0.text}\` is not a node name here: nodes inside a block instance cannot be reached from outside.`);
+      if (t0.text.includes('.')) fail(t0, 'syntax', `\`${t0.text}\` is not a node name here: nodes inside a block instance cannot be reached from outside.`);
       else conns.push({ node: ctx.name(t0) });
     } else if (isPlainIdent(t0) && tokens[a + 1]?.text === '=') {
       if (b - a === 2) {
-        ctx.error('missing-value', tokens[a + 1], `Pin \`${t0.text}=\` has no node.`);
+        fail(tokens[a + 1], 'missing-value', `Pin \`${t0.text}=\` has no node.`);
       } else if (b - a === 3 && isPlainIdent(tokens[a + 2])) {
         conns.push({ pin: ctx.name(t0), node: ctx.name(tokens[a + 2]) });
       } else {
-        ctx.error('syntax', tokens[a + 2], `Expected a node name after \`${t0.text}=\`.`);
+        fail(tokens[a + 2], 'syntax', `Expected a node name after \`${t0.text}=\`.`);
       }
     } else {
-      ctx.error('syntax', t0, `Expected a node name or \`pin=node\`, found \`${t0.text}\`.`);
+      fail(t0, 'syntax', `Expected a node name or \`pin=node\`, found \`${t0.text}\`.`);
     }
   }
-  return conns;
+  return { conns, broken };
 }
 
 /** Groups tokens into whitespace-separated words; `@` joins its neighbours (`ac=1 @ 90`). */
@@ -192,12 +202,15 @@ export function parsePartLine(ctx: LineContext): PartStmt | undefined {
   }
   let close = closingParen(tokens, 3);
   let rest: number;
-  if (close < 0) {
+  const unclosed = close < 0;
+  if (unclosed) {
     ctx.error('syntax', tokens[3], 'The connection list is never closed.', 'add the missing `)`');
     close = tokens.length;
     rest = tokens.length;
   } else rest = close + 1;
-  const conns = parseConnections(ctx, 3, Math.min(close, tokens.length));
+  // An unclosed list swallows the rest of the line: its nodes are kept (so that their other parts
+  // are not said to hang by one connection), but what it holds is not worth a message of its own.
+  const { conns, broken } = parseConnections(ctx, 3, close, unclosed);
   const endTok = tokens[Math.min(close, tokens.length - 1)];
   const connsLoc = ctx.line.loc(tokens[3].start, endTok.end);
   let main: ValueText | undefined;
@@ -219,5 +232,6 @@ export function parsePartLine(ctx: LineContext): PartStmt | undefined {
       keys.push({ key });
     } else keys.push({ key, value: ctx.value(a + 2, b) });
   }
-  return { kind: 'part', name, partKind, conns, connsLoc, main, keys, loc: name.loc };
+  const connsBroken = unclosed ? 'unclosed' : broken ? 'syntax' : undefined;
+  return { kind: 'part', name, partKind, conns, connsLoc, ...(connsBroken ? { connsBroken } : {}), main, keys, loc: name.loc };
 }

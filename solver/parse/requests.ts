@@ -10,8 +10,8 @@ import type { CheckStmt, MeasureStmt, RequestStmt, TokenStmt, ValueText } from '
 import { evaluateExpression, PARAM_CONSTANTS, RESULT_FUNCTIONS, rewriteExpressionDetailed } from './expression';
 import { article, BUILTIN_FIGURES, rangeProblem, type Range } from './kinds';
 import type { QuantityUnit } from './quantity';
-import { parseAnalyze } from './analyze-syntax';
-import { didYouMean } from './suggest';
+import { ANALYSES, parseAnalyze } from './analyze-syntax';
+import { closest, didYouMean } from './suggest';
 
 /** What the request resolver needs to know about the circuit. */
 export interface RequestScope {
@@ -20,6 +20,8 @@ export interface RequestScope {
   params: Map<string, number>;
   /** Names of parts that were written but could not be built: no second error about them. */
   attemptedParts: Set<string>;
+  /** Block instances that could not be expanded: names inside them get no second error either. */
+  brokenInstances?: Set<string>;
   bag: DiagnosticBag;
 }
 
@@ -38,6 +40,24 @@ export class RequestContext {
 
   error(code: string, loc: SourceLoc, message: string, hint?: string): void {
     this.scope.bag.error(code, loc, message, hint);
+  }
+
+  /**
+   * True when the part `name` was written but could not be built (its line failed, or it stands
+   * inside an instance of an unknown or failed block): that error already covers it.
+   */
+  alreadyReported(name: string): boolean {
+    return (this.scope.attemptedParts.has(name) && !this.scope.parts.has(name)) || this.insideBrokenInstance(name);
+  }
+
+  /** True when `name` (a part or node) lies inside a block instance that could not be expanded. */
+  insideBrokenInstance(name: string): boolean {
+    const broken = this.scope.brokenInstances;
+    if (!broken || broken.size === 0) return false;
+    for (let dot = name.indexOf('.'); dot > 0; dot = name.indexOf('.', dot + 1)) {
+      if (broken.has(name.slice(0, dot))) return true;
+    }
+    return false;
   }
 
   /** Evaluates a value over the top-level params; NaN (reported) on failure. */
@@ -59,7 +79,7 @@ export class RequestContext {
   source(name: string, loc: SourceLoc, role: string): string | undefined {
     const part = this.scope.parts.get(name);
     if (!part) {
-      if (!this.scope.attemptedParts.has(name)) {
+      if (!this.alreadyReported(name)) {
         const sources = [...this.scope.parts.values()].filter((p) => p.kind === 'vsrc' || p.kind === 'isrc').map((p) => p.name);
         this.error('unknown-name', loc, `Unknown source \`${name}\` in ${role}.`, didYouMean(name, sources) ?? (sources.length ? `sources are ${sources.slice(0, 8).join(', ')}` : 'add a vsrc or isrc'));
       }
@@ -76,6 +96,7 @@ export class RequestContext {
   node(name: string, loc: SourceLoc, allowGround = true): string | undefined {
     if (name === GROUND && allowGround) return name;
     if (this.scope.nodes.has(name)) return name;
+    if (this.insideBrokenInstance(name)) return undefined;
     this.error('unknown-node', loc, name === GROUND ? '`gnd` cannot be used here.' : `Unknown node \`${name}\`.`, name === GROUND ? undefined : didYouMean(name, this.scope.nodes) ?? (this.scope.parts.has(name) ? `\`${name}\` is a part, not a node` : undefined));
     return undefined;
   }
@@ -95,11 +116,17 @@ export function resolveRequests(stmts: RequestStmt[], scope: RequestScope): Requ
       }
     }
   }
-  const measureNames = new Set<string>();
+  const failed = new Set<string>();
+  if (portsStmt && !requests.ports) failed.add('ports');
+  const measureNames: MeasureNames = { defined: new Set(), failed: new Set() };
   for (const s of stmts) {
     if (s.kind === 'analyze') {
       const a: AnalysisRequest | undefined = parseAnalyze(ctx, s);
       if (a) requests.analyses.push(a);
+      else {
+        const meant = analysisMeant(s);
+        if (meant) failed.add(meant);
+      }
     } else if (s.kind === 'measure') {
       const m = resolveMeasure(ctx, s, measureNames, !!portsStmt);
       if (m) requests.measures.push(m);
@@ -108,7 +135,15 @@ export function resolveRequests(stmts: RequestStmt[], scope: RequestScope): Requ
       if (c) requests.checks.push(c);
     }
   }
+  if (failed.size > 0) requests.failed = [...failed];
   return requests;
+}
+
+/** The analysis an `analyze` line meant (its kind, or the closest kind to a misspelt one). */
+function analysisMeant(s: TokenStmt): string | undefined {
+  const word = s.tokens[1]?.text;
+  if (word === undefined) return undefined;
+  return ANALYSES.includes(word) ? word : closest(word, ANALYSES);
 }
 
 /** `ports in=(va, vb) out=(outa, outb) [at F]` or `out=outa`. */
@@ -188,14 +223,34 @@ function parsePorts(ctx: RequestContext, s: TokenStmt): PortsRequest | undefined
   return { inP, inN, outP, ...(outN ? { outN } : {}), atHz, loc: s.loc };
 }
 
-/** Rewrites a measure/check expression and checks the names it uses. */
-function resolveExpression(ctx: RequestContext, value: ValueText, measures: Set<string>, hasPorts: boolean): string | undefined {
+/** Problems of an expression's shape: with them, its calls and arguments cannot be read reliably. */
+const STRUCTURAL = new Set(['bad-expression', 'missing-value']);
+
+/**
+ * Rewrites a measure/check expression and checks the names it uses. One mistake gets one error:
+ * a malformed expression stops here (its calls cannot be read), nothing inside an unknown or
+ * malformed call is reported again, and a name of a measure that already failed with its own
+ * error drops this request silently.
+ */
+function resolveExpression(ctx: RequestContext, value: ValueText, known: MeasureNames, hasPorts: boolean): string | undefined {
   const rw = rewriteExpressionDetailed(value.text, { quoteNames: true });
   const at = (offset: number, length: number): SourceLoc => value.line.loc(value.start + offset, value.start + offset + Math.max(1, length));
   let ok = rw.problems.length === 0;
   for (const p of rw.problems) ctx.error(p.code, at(p.offset, p.length), p.message, p.hint);
+  if (rw.problems.some((p) => STRUCTURAL.has(p.code))) return undefined;
+  /** Spans of calls already reported as wrong: what stands inside them is not reported again. */
+  const quiet: [number, number][] = [];
+  const isQuiet = (offset: number) => quiet.some(([from, to]) => offset > from && offset < to);
+  for (const id of rw.identifiers) {
+    if (id.isCall && !MEASURE_FUNCTIONS.has(id.name)) {
+      ctx.error('unknown-function', at(id.offset, id.name.length), `Unknown function \`${id.name}\`.`, didYouMean(id.name, MEASURE_FUNCTIONS));
+      quiet.push([id.offset, id.callEnd ?? value.text.length]);
+      ok = false;
+    }
+  }
   const { parts } = ctx.scope;
   for (const call of rw.calls) {
+    if (isQuiet(call.offset)) continue;
     const nameArgs = call.args.filter((a) => a.name !== undefined);
     const exprArgs = call.args.filter((a) => a.name === undefined);
     const fn = call.fn;
@@ -206,6 +261,7 @@ function resolveExpression(ctx: RequestContext, value: ValueText, measures: Set<
     if (!firstIsName || nameArgs.length > maxNames || exprArgs.length > maxExtra || (nodeFn && exprArgs.length > 0)) {
       const what = nodeFn || fn === 'zout' ? 'node' : fn === 'zin' ? 'source' : fn === 'i' ? 'part' : 'device';
       ctx.error('bad-expression', at(call.offset, fn.length), `\`${fn}(…)\` takes ${nodeFn ? `one or two ${what} names` : `one ${what} name`}${maxExtra ? ' and an optional frequency' : ''}.`);
+      quiet.push([call.offset, call.end]);
       ok = false;
       continue;
     }
@@ -222,7 +278,7 @@ function resolveExpression(ctx: RequestContext, value: ValueText, measures: Set<
       }
       const part = parts.get(name);
       if (!part) {
-        if (!ctx.scope.attemptedParts.has(name)) ctx.error('unknown-name', loc, `Unknown part \`${name}\`.`, didYouMean(name, parts.keys()) ?? (ctx.scope.nodes.has(name) ? `\`${name}\` is a node: write v(${name})` : undefined));
+        if (!ctx.alreadyReported(name)) ctx.error('unknown-name', loc, `Unknown part \`${name}\`.`, didYouMean(name, parts.keys()) ?? (ctx.scope.nodes.has(name) ? `\`${name}\` is a node: write v(${name})` : undefined));
         ok = false;
         continue;
       }
@@ -241,12 +297,11 @@ function resolveExpression(ctx: RequestContext, value: ValueText, measures: Set<
     }
   }
   for (const id of rw.identifiers) {
+    if (id.isCall || isQuiet(id.offset)) continue;
     const loc = at(id.offset, id.name.length);
-    if (id.isCall) {
-      if (!MEASURE_FUNCTIONS.has(id.name)) {
-        ctx.error('unknown-function', loc, `Unknown function \`${id.name}\`.`, didYouMean(id.name, MEASURE_FUNCTIONS));
-        ok = false;
-      }
+    if (known.failed.has(id.name)) {
+      // The measure's own error is the one message; this request is dropped without another.
+      ok = false;
       continue;
     }
     if (BUILTIN_FIGURES.includes(id.name)) {
@@ -256,22 +311,28 @@ function resolveExpression(ctx: RequestContext, value: ValueText, measures: Set<
       }
       continue;
     }
-    if (ctx.scope.params.has(id.name) || measures.has(id.name) || PARAM_CONSTANTS.has(id.name)) continue;
-    const known = [...BUILTIN_FIGURES, ...measures, ...ctx.scope.params.keys()];
-    const hint = didYouMean(id.name, known) ?? (ctx.scope.nodes.has(id.name) ? `\`${id.name}\` is a node: write v(${id.name})` : parts.has(id.name) ? `\`${id.name}\` is a part: write i(${id.name}) or a device function` : undefined);
+    if (ctx.scope.params.has(id.name) || known.defined.has(id.name) || PARAM_CONSTANTS.has(id.name)) continue;
+    const names = [...BUILTIN_FIGURES, ...known.defined, ...ctx.scope.params.keys()];
+    const hint = didYouMean(id.name, names) ?? (ctx.scope.nodes.has(id.name) ? `\`${id.name}\` is a node: write v(${id.name})` : parts.has(id.name) ? `\`${id.name}\` is a part: write i(${id.name}) or a device function` : undefined);
     ctx.error('unknown-name', loc, `Unknown name \`${id.name}\`.`, hint);
     ok = false;
   }
   return ok ? rw.expr.trim() : undefined;
 }
 
-function resolveMeasure(ctx: RequestContext, s: MeasureStmt, defined: Set<string>, hasPorts: boolean): MeasureRequest | undefined {
+/** The measures seen so far: defined ones, and those whose line failed (already reported). */
+interface MeasureNames {
+  defined: Set<string>;
+  failed: Set<string>;
+}
+
+function resolveMeasure(ctx: RequestContext, s: MeasureStmt, known: MeasureNames, hasPorts: boolean): MeasureRequest | undefined {
   const name = s.name.text;
   if (BUILTIN_FIGURES.includes(name) || name === GROUND || RESULT_FUNCTIONS.has(name) || MEASURE_FUNCTIONS.has(name)) {
     ctx.error('reserved-name', s.name.loc, `\`${name}\` is a built-in name and cannot name a measure.`, 'choose another name');
     return undefined;
   }
-  if (defined.has(name)) {
+  if (known.defined.has(name)) {
     ctx.error('duplicate-name', s.name.loc, `The measure \`${name}\` is defined twice.`);
     return undefined;
   }
@@ -279,16 +340,18 @@ function resolveMeasure(ctx: RequestContext, s: MeasureStmt, defined: Set<string
     ctx.error('duplicate-name', s.name.loc, `\`${name}\` is already a parameter.`, 'give the measure its own name');
     return undefined;
   }
-  if (!s.expr) return undefined;
-  const expr = resolveExpression(ctx, s.expr, defined, hasPorts);
-  defined.add(name);
-  if (expr === undefined) return undefined;
-  return { name, expr, source: s.expr.text, loc: s.name.loc };
+  known.defined.add(name);
+  const expr = s.expr ? resolveExpression(ctx, s.expr, known, hasPorts) : undefined;
+  if (expr === undefined) {
+    known.failed.add(name);
+    return undefined;
+  }
+  return { name, expr, source: (s.expr as ValueText).text, loc: s.name.loc };
 }
 
-function resolveCheck(ctx: RequestContext, s: CheckStmt, measures: Set<string>, hasPorts: boolean): CheckRequest | undefined {
-  const lhs = resolveExpression(ctx, s.lhs, measures, hasPorts);
-  const rhs = resolveExpression(ctx, s.rhs, measures, hasPorts);
+function resolveCheck(ctx: RequestContext, s: CheckStmt, known: MeasureNames, hasPorts: boolean): CheckRequest | undefined {
+  const lhs = resolveExpression(ctx, s.lhs, known, hasPorts);
+  const rhs = resolveExpression(ctx, s.rhs, known, hasPorts);
   let tol: number | undefined;
   let tolRelative = false;
   if (s.tol) {

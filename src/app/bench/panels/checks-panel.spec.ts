@@ -43,6 +43,18 @@ describe('ChecksPanel', () => {
     expect(rows[1].getAttribute('aria-label')).toContain('fails');
   });
 
+  it('writes dimensionless checks as plain figures and a product of current and voltage in watts', async () => {
+    // Ratios take no SI prefix (common practice); W = V·A (SI Brochure, 9th ed., 2019, Table 4).
+    const netlist = RESISTOR_TAIL_PAIR + 'check mag(acm) < 1\ncheck ic(q1) * vce(q1) <= 10m\n';
+    const result = solveNetlist(netlist);
+    expect(result.errors).toEqual([]);
+    const { el } = await render(result, netlist);
+    const rows = [...el.querySelectorAll('button.row')];
+    const [, , acm, power] = result.checks;
+    expect(cells(rows[2]).slice(2, 5)).toEqual(['0.530', '< 1.00', `+${acm.margin.toPrecision(3)}`]);
+    expect(cells(rows[3]).slice(2, 5)).toEqual([`${(power.value * 1e3).toPrecision(3)} mW`, '≤ 10.0 mW', `+${(power.margin * 1e3).toPrecision(3)} mW`]);
+  });
+
   it('emits the check\'s line on click and on Enter (a native button)', async () => {
     const { el, lines } = await render(solveNetlist(RESISTOR_TAIL_PAIR));
     const rows = [...el.querySelectorAll('button.row')] as HTMLButtonElement[];

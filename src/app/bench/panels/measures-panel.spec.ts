@@ -2,7 +2,7 @@ import { TestBed } from '@angular/core/testing';
 import { solveNetlist } from '../../../../solver';
 import type { SolveResult } from '../../../../solver/result';
 import { MeasuresPanel } from './measures-panel';
-import { HEADROOM_TROUBLE, LOADED_PAIR, MOS_PAIR_SINGLE } from './testing/netlists';
+import { HEADROOM_TROUBLE, LOADED_PAIR, MOS_PAIR_SINGLE, RESISTOR_TAIL_PAIR } from './testing/netlists';
 
 async function render(result: SolveResult | undefined, netlist?: string) {
   const fixture = TestBed.createComponent(MeasuresPanel);
@@ -39,7 +39,26 @@ describe('MeasuresPanel', () => {
     expect(values(el)).toEqual([['vmin', '43.8 mV'], ['gm3', '926 µS']]);
   });
 
-  it('without the netlist shows plain SI numbers and emits nothing', async () => {
+  it('works the unit out of products and quotients: W, Ω, S, and a plain figure for a ratio', async () => {
+    // W = V·A, Ω = V/A, S = A/V (SI Brochure, 9th ed., 2019, Table 4); a ratio of two voltages
+    // has no unit and takes no prefix (common practice).
+    const netlist = RESISTOR_TAIL_PAIR + [
+      'measure pq = ic(q1) * vce(q1)', 'measure rout = v(outa) / i(rc1)', 'measure gq = ic(q1) / vbe(q1)',
+      'measure ratio = v(outa) / v(vcc)', 'measure acm0 = mag(acm)', '',
+    ].join('\n');
+    const result = solveNetlist(netlist);
+    expect(result.errors).toEqual([]);
+    const m = result.measures;
+    const { el } = await render(result, netlist);
+    const shown = Object.fromEntries(values(el));
+    expect(shown['pq']).toBe(`${(m['pq'] * 1e3).toPrecision(3)} mW`);
+    expect(shown['rout']).toBe(`${(m['rout'] / 1e3).toPrecision(3)} kΩ`);
+    expect(shown['gq']).toBe(`${(m['gq'] * 1e3).toPrecision(3)} mS`);
+    expect(shown['ratio']).toBe(m['ratio'].toPrecision(3));
+    expect(shown['acm0']).toBe('0.530');
+  });
+
+  it('without the netlist shows plain figures and emits nothing', async () => {
     const result = solveNetlist(MOS_PAIR_SINGLE);
     const { el, lines } = await render(result);
     expect(el.querySelector('button.row')).toBeNull();

@@ -16,7 +16,8 @@ interface MeasureRow {
 
 /**
  * Measures: each `measure` with its value in the unit its expression implies (db → dB,
- * corner/unity → Hz, margin → °, ic → A …; a plain SI number otherwise). When the netlist text
+ * corner/unity → Hz, margin → °, ic → A, ic·vce → W, v/i → Ω …; a ratio or anything the unit
+ * algebra cannot name is a plain figure, never an SI prefix). When the netlist text
  * is given, each measure shows its expression and choosing it emits its line; without it there
  * is no line to go to, and nothing is emitted.
  */

@@ -40,6 +40,24 @@ describe('ModesPanel', () => {
     expect(text).toContain('voc = (v(outa) + v(outb))/2');
   });
 
+  it('writes gains and CMRR as plain figures or powers of ten, never with SI prefixes', async () => {
+    const result = solveNetlist(RESISTOR_TAIL_PAIR);
+    const { el } = await render(result);
+    // acm of the resistor-tail pair is −gm·RC/(1 + (gm + gπ)·2RT) ≈ −0.53 (Sedra & Smith,
+    // differential-amplifier chapter, half circuits; from memory): written "0.530", not "530 m".
+    const acm = figure(el, 'Common-mode gain').querySelector('.sub')!.textContent!;
+    expect(acm).toContain('|acm| = 0.530');
+    expect(acm).toContain('acm = -0.530');
+    expect(el.textContent).not.toMatch(/\d [mkMG](?![A-Za-z])/);
+    // A current-source tail (2 mA behind a 1 TΩ leak) lifts CMRR past 10⁵: a power of ten.
+    const stiff = solveNetlist(RESISTOR_TAIL_PAIR.replace('rt: res(tail, vee) 4.65k', 'it: isrc(tail, vee) 2m\nrt: res(tail, vee) 1T'));
+    const p = stiff.ports!;
+    expect(p.cmrr).toBeGreaterThan(1e5);
+    expect(p.cmrr).toBeLessThan(1e6);
+    const cmrr = figure((await render(stiff)).el, 'CMRR').querySelector('.sub')!.textContent!.trim();
+    expect(cmrr).toBe(`cmrr = ${p.cmrr.toExponential(2).split('e')[0]} × 10⁵`);
+  });
+
   it('plots CMRR over frequency, magnitude only, with its corner marked', async () => {
     const result = solveNetlist(RESISTOR_TAIL_PAIR);
     const { el } = await render(result);

@@ -6,7 +6,7 @@ import { curveStyle } from './plot/palette';
 import type { PlotSeries } from './plot/plot-geometry';
 import { PanelNotice, panelNotice } from './panel-notice';
 import { STATUS_STYLES } from './panel-styles';
-import { formatDb, formatDeg, formatSi } from './si-format';
+import { formatDb, formatDeg, formatPlain, formatSi } from './si-format';
 
 /** The names the ports line gave, read back from the solver's stated conventions. */
 export interface PortNames {
@@ -135,7 +135,7 @@ export class ModesPanel {
     return [
       complexFigure('adm', 'Differential gain adm', p.adm, `adm = vod / vid${n.outN ? '' : `, vod = ${out}`}`, p.at_hz),
       complexFigure('acm', 'Common-mode gain acm', p.acm, 'acm = voc / vic', p.at_hz),
-      { key: 'cmrr', title: 'CMRR', definition: 'cmrr = |adm / acm|; cmrr_db = 20·log10(cmrr)', magnitude: `cmrr = ${formatSi(p.cmrr)}`, db: formatDb(p.cmrr_db, 2) },
+      { key: 'cmrr', title: 'CMRR', definition: 'cmrr = |adm / acm|; cmrr_db = 20·log10(cmrr)', magnitude: `cmrr = ${formatPlain(p.cmrr)}`, db: formatDb(p.cmrr_db, 2) },
     ];
   });
 
@@ -154,14 +154,17 @@ export class ModesPanel {
   });
 }
 
-/** A gain figure: dB large, then magnitude, phase and — at 0 Hz, where it is real — its signed value. */
+/**
+ * A gain figure: dB large, then magnitude, phase and — at 0 Hz, where it is real — its signed
+ * value. Gains are ratios: plain figures, never SI prefixes ("0.530", not "530 m").
+ */
 function complexFigure(key: string, title: string, f: ComplexFigure, definition: string, atHz: number): Figure {
   const real = Math.abs(f.im) <= 1e-12 * Math.max(1, Math.abs(f.re));
   return {
     key, title, definition,
-    magnitude: `|${key}| = ${formatSi(f.mag)}`,
+    magnitude: `|${key}| = ${formatPlain(f.mag)}`,
     db: formatDb(f.db, 2),
     phase: formatDeg(f.phase_deg),
-    signed: atHz === 0 && real ? `${key} = ${formatSi(f.re)}` : undefined,
+    signed: atHz === 0 && real ? `${key} = ${formatPlain(f.re)}` : undefined,
   };
 }

@@ -1,4 +1,4 @@
-import { formatDb, formatDeg, formatQuantity, formatSi, formatSigned, formatTick, NO_VALUE } from './si-format';
+import { formatDb, formatDeg, formatPlain, formatQuantity, formatSi, formatSigned, formatTick, NO_VALUE } from './si-format';
 
 // SI prefixes and their symbols: BIPM, The International System of Units (SI Brochure), 9th ed.,
 // 2019, Table 7; engineering notation (exponents in multiples of three) is common practice.
@@ -30,10 +30,11 @@ describe('formatSi', () => {
     expect(formatSi(1e-6, 'A')).toBe('1.00 µA');
   });
 
-  it('writes a plain number without a unit and without a trailing space', () => {
+  it('writes a number without a unit plainly, never with a prefix', () => {
     expect(formatSi(179.754)).toBe('180');
-    expect(formatSi(0.530133)).toBe('530 m');
+    expect(formatSi(0.530133)).toBe('0.530');
     expect(formatSi(339.07)).toBe('339');
+    expect(formatSi(6.46e10)).toBe('6.46 × 10¹⁰');
     expect(formatSi(0, 'V')).toBe('0 V');
     expect(formatSi(0)).toBe('0');
   });
@@ -43,12 +44,49 @@ describe('formatSi', () => {
     expect(formatSi(87332, 'Ω')).toBe('87.3 kΩ');
   });
 
-  it('falls back to exponent form outside f…T and never prints NaN', () => {
-    expect(formatSi(1.234e-18, 'A')).toBe('1.23e-18 A');
-    expect(formatSi(3e16, 'Hz')).toBe('3.00e16 Hz');
+  it('falls back to a power of ten outside f…T and never prints NaN', () => {
+    expect(formatSi(1.234e-18, 'A')).toBe('1.23 × 10⁻¹⁸ A');
+    expect(formatSi(3e16, 'Hz')).toBe('3.00 × 10¹⁶ Hz');
     expect(formatSi(Number.NaN, 'V')).toBe(NO_VALUE);
     expect(formatSi(Number.POSITIVE_INFINITY, 'V')).toBe(NO_VALUE);
     expect(formatSi(undefined, 'V')).toBe(NO_VALUE);
+  });
+});
+
+// Dimensionless figures: three significant digits, plain from 10⁻³ to 10⁵ and a power of ten
+// beyond, in the "× 10ⁿ" spelling of data sheets and textbooks (common practice).
+describe('formatPlain', () => {
+  it('writes gains and ratios between 10⁻³ and 10⁵ as plain figures with three significant digits', () => {
+    expect(formatPlain(0.530133)).toBe('0.530');
+    expect(formatPlain(-0.530133)).toBe('-0.530');
+    expect(formatPlain(179.754)).toBe('180');
+    expect(formatPlain(1)).toBe('1.00');
+    expect(formatPlain(0.00123456)).toBe('0.00123');
+    expect(formatPlain(1e-3)).toBe('0.00100');
+    expect(formatPlain(12345)).toBe('12300');
+    expect(formatPlain(99940)).toBe('99900');
+  });
+
+  it('writes a power of ten beyond, with a superscript exponent', () => {
+    expect(formatPlain(6.46e10)).toBe('6.46 × 10¹⁰');
+    expect(formatPlain(64.6e9)).toBe('6.46 × 10¹⁰');
+    expect(formatPlain(1e15)).toBe('1.00 × 10¹⁵');
+    expect(formatPlain(-2.5e-6)).toBe('-2.50 × 10⁻⁶');
+    expect(formatPlain(9.996e-4)).toBe('0.00100');
+    expect(formatPlain(99996)).toBe('1.00 × 10⁵');
+    expect(formatPlain(1e5)).toBe('1.00 × 10⁵');
+  });
+
+  it('writes zero as 0 and has no figure for what is not a finite number', () => {
+    expect(formatPlain(0)).toBe('0');
+    expect(formatPlain(Number.NaN)).toBe(NO_VALUE);
+    expect(formatPlain(undefined)).toBe(NO_VALUE);
+  });
+
+  it('is what formatQuantity and formatSigned use for a unitless value', () => {
+    expect(formatQuantity(0.53, '')).toBe('0.530');
+    expect(formatSigned(6.46e10)).toBe('+6.46 × 10¹⁰');
+    expect(formatSigned(-0.53)).toBe('-0.530');
   });
 });
 

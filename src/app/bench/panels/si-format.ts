@@ -4,7 +4,9 @@
  *
  * Three digits is what a designer reads off a bench at a glance; the exact numbers stay in the
  * JSON and in the CSV export. Decibels and degrees are not scaled by prefixes (a "kdB" is
- * nonsense): they keep a fixed number of decimals.
+ * nonsense): they keep a fixed number of decimals. Dimensionless figures (gains, ratios, CMRR)
+ * take no prefix either — "530 m" of a gain or "64.6 G" of a CMRR reads as a unit that is not
+ * there — but plain figures, and powers of ten beyond 10⁻³…10⁵: `0.530`, `180`, `6.46 × 10¹⁰`.
  */
 import { INFINITE_OHMS } from '../../../../solver/report/si-format';
 
@@ -21,19 +23,55 @@ export type Unit = '' | 'V' | 'A' | 'Ω' | 'S' | 'F' | 'Hz' | 's' | 'dB' | '°' 
 /**
  * `value` in engineering notation with an SI prefix and `unit`:
  * formatSi(0.002, 'A') → "2.00 mA"; formatSi(1e30, 'Ω') → "∞" (the engine's ro for va = ∞).
- * Values beyond f…T fall back to exponent form ("1.00e-18 A"), never to a misleading prefix.
+ * Values beyond f…T fall back to a power of ten ("1.00 × 10⁻¹⁸ A"), never to a misleading
+ * prefix. Without a unit the value is a plain figure (formatPlain): formatSi(0.53) → "0.530".
  */
 export function formatSi(value: number | undefined | null, unit: Unit | string = '', digits = 3): string {
   if (value === undefined || value === null || !Number.isFinite(value)) return NO_VALUE;
-  const sep = unit ? ' ' : '';
-  if (value === 0) return `0${sep}${unit}`;
+  // A prefix on a plain number would read as a unit: dimensionless figures are written plainly.
+  if (!unit) return formatPlain(value, digits);
+  if (value === 0) return `0 ${unit}`;
   if (unit === 'Ω' && value >= INFINITE_OHMS) return '∞';
   // Round to the digits first, so 999.6 reads "1.00 k" and not "1000".
   const rounded = Number(value.toPrecision(digits));
   const { exponent, mantissa } = engineering(rounded, digits);
   const entry = PREFIXES.find(([e]) => e === exponent);
-  if (!entry) return `${rounded.toExponential(digits - 1).replace('e+', 'e')}${sep}${unit}`;
-  return `${mantissa.toPrecision(digits)} ${entry[1]}${unit}`.trimEnd();
+  if (!entry) return `${powerOfTen(rounded, digits)} ${unit}`;
+  return `${mantissa.toPrecision(digits)} ${entry[1]}${unit}`;
+}
+
+/** Below this magnitude, and from PLAIN_MAX up, a dimensionless figure is a power of ten. */
+export const PLAIN_MIN = 1e-3;
+export const PLAIN_MAX = 1e5;
+
+const SUPERSCRIPT: Record<string, string> = {
+  '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹',
+};
+
+/**
+ * A dimensionless figure as a designer writes it: `digits` significant digits, plain between
+ * 10⁻³ and 10⁵ (formatPlain(0.530133) → "0.530", formatPlain(179.75) → "180"), a power of ten
+ * beyond (formatPlain(6.46e10) → "6.46 × 10¹⁰", formatPlain(2.5e-6) → "2.50 × 10⁻⁶"). The
+ * "× 10ⁿ" form is the one of data sheets and textbooks; "6.46e10" is a programmer's spelling.
+ */
+export function formatPlain(value: number | undefined | null, digits = 3): string {
+  if (value === undefined || value === null || !Number.isFinite(value)) return NO_VALUE;
+  if (value === 0) return '0';
+  // Round first, so that 99 996 becomes 1.00 × 10⁵ and 0.00099996 reads 0.00100.
+  const rounded = Number(value.toPrecision(digits));
+  const magnitude = Math.abs(rounded);
+  if (magnitude >= PLAIN_MIN && magnitude < PLAIN_MAX) {
+    const exponent = Math.floor(Math.log10(magnitude));
+    return rounded.toFixed(Math.max(0, digits - 1 - exponent));
+  }
+  return powerOfTen(rounded, digits);
+}
+
+/** "6.46 × 10¹⁰": `digits` significant digits and a superscript exponent. */
+function powerOfTen(value: number, digits: number): string {
+  const [mantissa, exponent] = value.toExponential(digits - 1).split('e');
+  const power = String(Number(exponent)).replace(/[-0-9]/g, (c) => SUPERSCRIPT[c]);
+  return `${mantissa} × 10${power}`;
 }
 
 /** Like formatSi but with an explicit sign, for margins: "+1.50 mA", "-2.00 dB". */
@@ -55,7 +93,7 @@ export function formatDeg(deg: number | undefined | null, decimals = 1): string 
   return `${fixed(deg, decimals)}°`;
 }
 
-/** Any quantity in its own manner: dB and ° with decimals, everything else with SI prefixes. */
+/** Any quantity in its own manner: dB and ° with decimals, plain numbers plainly, everything else with SI prefixes. */
 export function formatQuantity(value: number | undefined | null, unit: Unit | string = ''): string {
   if (unit === 'dB') return formatDb(value);
   if (unit === '°') return formatDeg(value);

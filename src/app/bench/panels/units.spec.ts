@@ -25,11 +25,69 @@ describe('guessUnit', () => {
     expect(guessUnit('(v(outa) - v(outb))')).toBe('V');
   });
 
-  it('calls a quotient or a mixed sum a plain number', () => {
+  it('calls a ratio of like quantities, an intrinsic gain or a mixed sum a plain number', () => {
     expect(guessUnit('ic(q1)/ic(q2)')).toBe('');
+    expect(guessUnit('v(outa)/v(ina)')).toBe('');
     expect(guessUnit('gm(q1)*ro(q1)')).toBe('');
     expect(guessUnit('ic(q1) + vce(q1)')).toBe('');
     expect(guessUnit('1e-3 + ic(q1)')).toBe('A');
+  });
+});
+
+// The units of products and quotients: W = V·A, Ω = V/A, S = A/V, F = A·s/V, Hz = 1/s (BIPM, The
+// International System of Units (SI Brochure), 9th ed., 2019, Table 4, derived units).
+describe('guessUnit: the unit algebra', () => {
+  it('makes watts of a current times a voltage', () => {
+    expect(guessUnit('i(q1.c) * v(out)')).toBe('W');
+    expect(guessUnit('ic(q1) * vce(q1)')).toBe('W');
+    expect(guessUnit('v(vcc) * -i(vcc)')).toBe('W');
+    expect(guessUnit('v(out)^2 / zout(out)')).toBe('W');
+  });
+
+  it('makes ohms of a voltage over a current and siemens of a current over a voltage', () => {
+    expect(guessUnit('v(out) / i(rl)')).toBe('Ω');
+    expect(guessUnit('vce(q1) / ic(q1)')).toBe('Ω');
+    expect(guessUnit('1 / gm(q1)')).toBe('Ω');
+    expect(guessUnit('ic(q1) / v(out)')).toBe('S');
+    expect(guessUnit('1/ro(q1)')).toBe('S');
+    expect(guessUnit('ic(q1) / 25.9m')).toBe('A');
+  });
+
+  it('gives hertz, seconds and farads where the algebra leads there', () => {
+    expect(guessUnit('unity(adm) / 2')).toBe('Hz');
+    expect(guessUnit('1 / corner(adm)')).toBe('s');
+    expect(guessUnit('gm(q1) / (2*pi*unity(adm))')).toBe('F');
+    expect(guessUnit('cpi(q1) + cmu(q1)')).toBe('F');
+    expect(guessUnit('sqrt(ic(q1)^2)')).toBe('A');
+    expect(guessUnit('pow(vce(q1), 1)')).toBe('V');
+  });
+
+  it('reads quantities with units written in the expression', () => {
+    expect(guessUnit('ic(q1) * 1 kΩ')).toBe('V');
+    expect(guessUnit('v(out) / 10k')).toBe('V');
+    expect(guessUnit('v(out) / 10 kΩ')).toBe('A');
+  });
+
+  it('keeps dB and degrees through scaling and sums with plain numbers only', () => {
+    expect(guessUnit('db(adm) - 6')).toBe('dB');
+    expect(guessUnit('cmrr_db - db(adm)')).toBe('dB');
+    expect(guessUnit('2 * phase(at(adm, 1k))')).toBe('°');
+    expect(guessUnit('db(adm) * db(acm)')).toBe('');
+    expect(guessUnit('db(adm) + vce(q1)')).toBe('');
+  });
+
+  it('calls gains, logarithms and what it cannot read a plain number', () => {
+    expect(guessUnit('mag(at(ac(out), 1k))')).toBe('');
+    expect(guessUnit('cmrr')).toBe('');
+    expect(guessUnit('log10(ic(q1)/1m)')).toBe('');
+    expect(guessUnit('sqrt(vce(q1))')).toBe('');
+    expect(guessUnit('ic(q1) *')).toBe('');
+    expect(guessUnit('ic(q1)^rc')).toBe('');
+  });
+
+  it('takes a param as a bare number and an earlier measure at its unit', () => {
+    expect(guessUnit('vce(q1) - vsat')).toBe('V');
+    expect(guessUnit('pdiss / vmin', { pdiss: 'W', vmin: 'V' })).toBe('A');
   });
 
   it('uses the units of earlier measures', () => {

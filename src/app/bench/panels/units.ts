@@ -1,12 +1,37 @@
 /**
- * The unit of a measure or check, guessed from its expression: the result JSON carries plain
- * numbers in SI base units, so the panels read the unit off the function that produced the
- * number (`db(…)` → dB, `corner(…)` → Hz, `ic(…)` → A, …).
+ * The unit of a measure or check, worked out from its expression: the result JSON carries plain
+ * numbers in SI base units, so the panels read the unit off the functions and operators that
+ * produced the number.
  *
- * The guess is deliberately modest: sums and differences of one unit keep it (`vce(q1) - 0.3`),
- * `min`/`max`/`abs` pass it through, a product or a quotient of named quantities is a plain number.
+ * A small unit algebra over the expression's tokens (the solver's own tokenizer, so a quantity
+ * such as `1 kΩ` is one token): every value carries exponents of volt, ampere and second, and the
+ * result is named when it is one the bench writes — V·A is W, V/A is Ω, A/V is S, A·s/V is F,
+ * V·s/A is H, 1/s is Hz, V/V is a plain number. `db()` gives dB and `phase()`/`margin()` give °,
+ * which survive only scaling and sums with plain numbers. A bare number (or a param, whose unit is
+ * not written) adopts the unit of what it is added to; anything the algebra cannot name is a
+ * plain number rather than a guess.
  */
+import { parseQuantity } from '../../../../solver/parse/quantity';
+import { tokenize, type Token } from '../../../../solver/parse/tokens';
 import type { Unit } from './si-format';
+
+/** Exponents of V, A and s; `free` marks a bare number, which takes its neighbours' unit in sums. */
+interface Dims { kind: 'dims'; v: number; a: number; s: number; free?: boolean }
+/** dB and degrees are no products of base units; `other` is what the algebra cannot name. */
+type Value = Dims | { kind: 'dB' | '°' | 'other' };
+
+const dims = (v: number, a: number, s: number): Dims => ({ kind: 'dims', v, a, s });
+const PLAIN = dims(0, 0, 0);
+const FREE: Dims = { ...PLAIN, free: true };
+const OTHER: Value = { kind: 'other' };
+
+/** Each unit the bench writes, as exponents of V, A and s. */
+const NAMED: [Unit, Dims][] = [
+  ['', PLAIN], ['V', dims(1, 0, 0)], ['A', dims(0, 1, 0)], ['Ω', dims(1, -1, 0)], ['S', dims(-1, 1, 0)],
+  ['W', dims(1, 1, 0)], ['F', dims(-1, 1, 1)], ['s', dims(0, 0, 1)], ['Hz', dims(0, 0, -1)],
+];
+/** Units of a quantity written in an expression (`1 kΩ`, `10 pF`); H is V·s/A. */
+const QUANTITY_UNITS: Record<string, Dims> = { ...Object.fromEntries(NAMED.filter(([u]) => u)), H: dims(1, -1, 1), '%': FREE };
 
 /** The unit of each result function of the netlist language (§3). */
 const FUNCTION_UNITS: Record<string, Unit> = {
@@ -16,93 +41,171 @@ const FUNCTION_UNITS: Record<string, Unit> = {
   gm: 'S', gds: 'S',
   rpi: 'Ω', ro: 'Ω', zin: 'Ω', zout: 'Ω',
   cpi: 'F', cmu: 'F',
+  // ac(n) is the response to the sources' ac= drive, read as a gain (drive 1 V, get V/V).
+  ac: '',
 };
 
 /** Figures of the ports analysis that stand as bare names. */
 const NAME_UNITS: Record<string, Unit> = { cmrr_db: 'dB', adm: '', acm: '', cmrr: '' };
 
-/** Functions whose result has the unit of their (first) argument. */
-const PASS_THROUGH = new Set(['min', 'max', 'abs', 'mag', 'at']);
+function fromUnit(unit: Unit): Value {
+  if (unit === 'dB' || unit === '°') return { kind: unit };
+  return NAMED.find(([u]) => u === unit)?.[1] ?? OTHER;
+}
+
+function toUnit(x: Value): Unit {
+  if (x.kind !== 'dims') return x.kind === 'other' ? '' : x.kind;
+  return NAMED.find(([, d]) => d.v === x.v && d.a === x.a && d.s === x.s)?.[0] ?? '';
+}
+
+const same = (x: Dims, y: Dims) => x.v === y.v && x.a === y.a && x.s === y.s;
+
+/** A sum (or min, max): terms of one unit keep it; bare numbers adopt it; mixed units name nothing. */
+function sum(terms: Value[]): Value {
+  const named = terms.filter((t) => !(t.kind === 'dims' && t.free));
+  if (named.length === 0) return FREE;
+  const first = named[0];
+  const agree = named.every((t) => (t.kind === 'dims' && first.kind === 'dims' ? same(t, first) : t.kind === first.kind));
+  return agree && first.kind !== 'other' ? (first.kind === 'dims' ? { ...first, free: undefined } : first) : OTHER;
+}
+
+/** x·y^sign (sign −1 for a quotient). dB and ° survive scaling by a bare number only. */
+function product(x: Value, y: Value, sign: 1 | -1): Value {
+  if (x.kind === 'dims' && y.kind === 'dims') {
+    return { kind: 'dims', v: x.v + sign * y.v, a: x.a + sign * y.a, s: x.s + sign * y.s, ...(x.free && y.free ? { free: true } : {}) };
+  }
+  if (y.kind === 'dims' && y.free) return x;
+  if (sign === 1 && x.kind === 'dims' && x.free) return y;
+  return OTHER;
+}
+
+function power(x: Value, n: number | undefined): Value {
+  if (x.kind !== 'dims') return OTHER;
+  if (x.free || (x.v === 0 && x.a === 0 && x.s === 0)) return x;
+  if (n === undefined) return OTHER;
+  const out = dims(x.v * n, x.a * n, x.s * n);
+  return Number.isInteger(out.v) && Number.isInteger(out.a) && Number.isInteger(out.s) ? out : OTHER;
+}
+
+/** What parsing yields: a unit, and the number itself when the operand is a literal (for `^`). */
+interface Operand { unit: Value; literal?: number }
+
+/** Recursive descent over the tokens: sum → product → unary → power → primary. */
+class UnitParser {
+  private k = 0;
+  constructor(private readonly tokens: Token[], private readonly known: Record<string, Unit>) {}
+
+  parse(): Value {
+    const x = this.sum();
+    if (this.k !== this.tokens.length) throw new Error('trailing tokens');
+    return x.unit;
+  }
+
+  private peek(): string | undefined {
+    return this.tokens[this.k]?.text;
+  }
+
+  private expect(text: string): void {
+    if (this.tokens[this.k++]?.text !== text) throw new Error(`expected ${text}`);
+  }
+
+  private sum(): Operand {
+    const terms = [this.product()];
+    while (this.peek() === '+' || this.peek() === '-') {
+      this.k++;
+      terms.push(this.product());
+    }
+    return terms.length === 1 ? terms[0] : { unit: sum(terms.map((t) => t.unit)) };
+  }
+
+  private product(): Operand {
+    let x = this.unary();
+    while (this.peek() === '*' || this.peek() === '/') {
+      const sign = this.tokens[this.k++].text === '*' ? 1 : -1;
+      x = { unit: product(x.unit, this.unary().unit, sign) };
+    }
+    return x;
+  }
+
+  private unary(): Operand {
+    if (this.peek() === '-' || this.peek() === '+') {
+      const negative = this.tokens[this.k++].text === '-';
+      const x = this.unary();
+      return x.literal === undefined ? x : { unit: x.unit, literal: negative ? -x.literal : x.literal };
+    }
+    return this.power();
+  }
+
+  private power(): Operand {
+    const base = this.primary();
+    if (this.peek() !== '^') return base;
+    this.k++;
+    return { unit: power(base.unit, this.unary().literal) };
+  }
+
+  private primary(): Operand {
+    const t = this.tokens[this.k++];
+    if (!t) throw new Error('unexpected end');
+    if (t.type === 'number') {
+      const q = parseQuantity(t.text);
+      if (!q.ok) throw new Error(q.message);
+      return { unit: q.unit ? QUANTITY_UNITS[q.unit] ?? OTHER : FREE, literal: q.value };
+    }
+    if (t.type === 'brace') return { unit: unitOf(t.text.slice(1, t.unterminated ? undefined : -1), this.known) };
+    if (t.text === '(') {
+      const x = this.sum();
+      this.expect(')');
+      return x;
+    }
+    if (t.type !== 'ident') throw new Error(`unexpected ${t.text}`);
+    if (this.peek() !== '(') return { unit: this.name(t.text) };
+    this.k++;
+    const args: Operand[] = [];
+    while (this.peek() !== ')') {
+      args.push(this.sum());
+      if (this.peek() === ',') this.k++;
+      else if (this.peek() !== ')') throw new Error('expected , or )');
+    }
+    this.k++;
+    return { unit: this.call(t.text, args) };
+  }
+
+  private name(name: string): Value {
+    if (name in this.known) return fromUnit(this.known[name]);
+    if (name in NAME_UNITS) return fromUnit(NAME_UNITS[name]);
+    // A param (its unit is not written) or a constant such as pi: a bare number.
+    return FREE;
+  }
+
+  private call(fn: string, args: Operand[]): Value {
+    if (fn in FUNCTION_UNITS) return fromUnit(FUNCTION_UNITS[fn]);
+    const first = args[0]?.unit ?? OTHER;
+    switch (fn) {
+      case 'mag': case 'abs': case 'at': return first;
+      case 'min': case 'max': return sum(args.map((a) => a.unit));
+      case 'sqrt': return power(first, 0.5);
+      case 'pow': return power(first, args[1]?.literal);
+      case 'log': case 'log10': case 'exp': return PLAIN;
+      default: return OTHER;
+    }
+  }
+}
+
+function unitOf(expr: string, known: Record<string, Unit>): Value {
+  try {
+    return new UnitParser(tokenize(expr), known).parse();
+  } catch {
+    return OTHER;
+  }
+}
 
 /**
- * Guesses the unit of an expression written in the netlist language.
+ * The unit of an expression written in the netlist language, e.g. `i(q1.c) * v(out)` → W,
+ * `v(out) / i(vcc)` → Ω, `ic(q1) / ic(q2)` → a plain number ('').
  * `known` gives the units of names defined elsewhere (earlier measures), e.g. { vmin: 'V' }.
  */
 export function guessUnit(expr: string, known: Record<string, Unit> = {}): Unit {
-  const text = stripOuterParens(expr.trim());
-  if (!text) return '';
-  const terms = splitTopLevel(text, ['+', '-']);
-  if (terms.length > 1) {
-    const units = terms.map((t) => guessTerm(t, known)).filter((u): u is Unit => u !== undefined);
-    // A bare number added to a quantity (`vce(q1) - 0.3`) takes that quantity's unit.
-    const named = units.filter((u) => u !== '');
-    return named.length > 0 && named.every((u) => u === named[0]) ? named[0] : '';
-  }
-  return guessTerm(text, known) ?? '';
-}
-
-/** Unit of a term without top-level + or −; undefined for a bare number (it adopts its neighbours'). */
-function guessTerm(term: string, known: Record<string, Unit>): Unit | undefined {
-  const text = stripOuterParens(term.trim().replace(/^[+-]\s*/, ''));
-  if (/^[0-9.]/.test(text) && splitTopLevel(text, ['*', '/', '^']).length === 1) return undefined;
-  if (splitTopLevel(text, ['*', '/', '^']).length > 1) {
-    // A number times a quantity keeps the quantity's unit (`2*ic(q1)`); anything else is plain.
-    const factors = splitTopLevel(text, ['*', '/', '^']);
-    const units = factors.map((f) => guessTerm(f, known));
-    const named = units.filter((u) => u !== undefined);
-    const op = text.includes('/') || text.includes('^');
-    return named.length === 1 && !op ? named[0] : '';
-  }
-  const call = /^([A-Za-z_][A-Za-z0-9_]*)\s*\((.*)\)$/s.exec(text);
-  if (call) {
-    const [, name, args] = call;
-    if (name in FUNCTION_UNITS) return FUNCTION_UNITS[name];
-    if (PASS_THROUGH.has(name)) {
-      const first = splitTopLevel(args, [','])[0] ?? '';
-      return guessUnit(first, known);
-    }
-    return '';
-  }
-  if (/^[A-Za-z_][A-Za-z0-9_.]*$/.test(text)) return known[text] ?? NAME_UNITS[text] ?? '';
-  return '';
-}
-
-/** Splits at the given one-character operators outside parentheses (and not as a sign or in 1e-3). */
-function splitTopLevel(text: string, ops: string[]): string[] {
-  const parts: string[] = [];
-  let depth = 0;
-  let start = 0;
-  for (let k = 0; k < text.length; k++) {
-    const c = text[k];
-    if (c === '(') depth++;
-    else if (c === ')') depth--;
-    else if (depth === 0 && ops.includes(c)) {
-      const before = text.slice(start, k).trim();
-      const isSign = (c === '+' || c === '-') && (before === '' || /[eE]$/.test(before) && /[0-9.][eE]$/.test(before));
-      if (isSign) continue;
-      parts.push(text.slice(start, k));
-      start = k + 1;
-    }
-  }
-  parts.push(text.slice(start));
-  return parts.map((p) => p.trim()).filter((p) => p !== '');
-}
-
-/** "(a + b)" → "a + b" when the parentheses enclose the whole text. */
-function stripOuterParens(text: string): string {
-  let t = text;
-  while (t.startsWith('(') && t.endsWith(')')) {
-    let depth = 0;
-    let wraps = true;
-    for (let k = 0; k < t.length; k++) {
-      if (t[k] === '(') depth++;
-      else if (t[k] === ')') depth--;
-      if (depth === 0 && k < t.length - 1) { wraps = false; break; }
-    }
-    if (!wraps) break;
-    t = t.slice(1, -1).trim();
-  }
-  return t;
+  return toUnit(unitOf(expr, known));
 }
 
 /** The left-hand side of a check's text: `ic(q1) = 1m ± 5%` → `ic(q1)`. */
