@@ -8,6 +8,7 @@
 export { solveNetlist, solveCircuit, type SolveOptions, type CircuitRun } from './solve';
 export { parseNetlist } from './parse/parse-netlist';
 export type * from './parse/parse-netlist';
+export { readBlockDocs, type BlockDoc, type DocumentedPin, type DocumentedParam } from './parse/block-doc';
 export { formatReport, CAUTION } from './report/text-report';
 export { formatSi } from './report/si-format';
 export { CMRR_CAP } from './analysis/ports';

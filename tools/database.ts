@@ -6,6 +6,7 @@ import pg from 'pg';
 import type { DataSource } from 'typeorm';
 import { createDataSource } from '../api/data-source';
 import { seedDemoData } from '../api/services/seed';
+import { seedLibrary } from './seed-library';
 import { PG_USER, type PostgresHandle } from './postgres';
 
 function quoteIdent(name: string): string {
@@ -41,7 +42,10 @@ export async function prepareDatabase(pgHandle: PostgresHandle, name: string, op
   const url = pgHandle.url(name);
   const ds = await migrate(url);
   try {
-    if (options.seed) await seedDemoData(ds);
+    if (options.seed) {
+      await seedDemoData(ds);
+      await seedLibrary(ds);
+    }
   } finally {
     await ds.destroy();
   }

@@ -3,6 +3,7 @@ import type { RequestHandler } from 'express';
 import type { DataSource } from 'typeorm';
 import type { RouteDef } from '../http/route';
 import type { Mailer } from '../services/mailer';
+import { libraryRoutes } from './library';
 import { meRoutes } from './me';
 import { memberRoutes } from './members';
 import { netlistRoutes } from './netlists';
@@ -24,5 +25,6 @@ export function apiRoutes(d: ApiRouteDeps): RouteDef[] {
     ...netlistRoutes(d.ds),
     ...shareRoutes(d.ds, d.mailer, d.publicUrl, d.lookupLimiter),
     ...memberRoutes(d.ds, d.mailer, d.publicUrl, d.lookupLimiter),
+    ...libraryRoutes(d.ds, d.mailer, d.publicUrl),
   ];
 }

@@ -71,3 +71,39 @@ export function sharedMail(p: { to: string; sharer: string; netlist: string; ver
     ),
   };
 }
+
+export function reviewRequestMail(p: { to: string; author: string; path: string; version: number; title: string; workspace: string; url: string }): Mail {
+  const footer = 'Nodewright block library. Re-solve its checks on the block page before you vet it.';
+  return {
+    to: p.to,
+    subject: `Review requested: ${p.path}@${p.version} (${p.title})`,
+    text: [
+      `${p.author} submitted version ${p.version} of the block ${p.path} (“${p.title}”) in ${p.workspace} for review.`,
+      '',
+      'Open it, re-solve its checks in your browser, and vet it or send it back:',
+      p.url,
+      '',
+      footer,
+    ].join('\n'),
+    html: html(
+      [`<strong>${escapeHtml(p.author)}</strong> submitted version ${p.version} of the block <strong>${escapeHtml(p.path)}</strong> (“${escapeHtml(p.title)}”) in ${escapeHtml(p.workspace)} for review.`, 'Open it, re-solve its checks in your browser, and vet it or send it back.'],
+      { href: p.url, label: 'Review the block' },
+      footer,
+    ),
+  };
+}
+
+export function reviewDecisionMail(p: { to: string; reviewer: string; path: string; version: number; decision: 'approve' | 'send_back'; comment: string; url: string }): Mail {
+  const verdict = p.decision === 'approve' ? 'vetted' : 'sent back';
+  const footer = p.decision === 'approve' ? 'Netlists can now pin it with `use ' + `${p.path}@${p.version}` + '`.' : 'Read the comments, then propose a new version.';
+  return {
+    to: p.to,
+    subject: `${p.path}@${p.version} was ${verdict} by ${p.reviewer}`,
+    text: [`${p.reviewer} ${verdict} version ${p.version} of ${p.path}.`, ...(p.comment ? ['', `“${p.comment}”`] : []), '', p.url, '', footer].join('\n'),
+    html: html(
+      [`<strong>${escapeHtml(p.reviewer)}</strong> ${verdict} version ${p.version} of <strong>${escapeHtml(p.path)}</strong>.`, ...(p.comment ? [`“${escapeHtml(p.comment)}”`] : [])],
+      { href: p.url, label: 'Open the block' },
+      footer,
+    ),
+  };
+}

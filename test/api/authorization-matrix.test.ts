@@ -72,6 +72,18 @@ async function samId(): Promise<string> {
   return (await api.dataSource.query(`SELECT id FROM users WHERE email = 'sam@strainlab.example'`))[0].id;
 }
 
+/** A block of the designer's in the given state; returns its URL below /api/workspaces/strainlab. */
+async function block(state: 'draft' | 'in_review' | 'vetted'): Promise<string> {
+  const name = `m${++seq}`;
+  const source = `model qm: npn(is=1e-16, beta=100)\nblock ${name}(in, out, rail)\n  qa: npn(c=in, b=in, e=rail) qm\n  qb: npn(c=out, b=in, e=rail) qm\nend\n`;
+  expect((await designer.post('/api/workspaces/strainlab/blocks', { path: `matrix/${name}`, source })).status).toBe(201);
+  const url = `/api/workspaces/strainlab/blocks/matrix/${name}`;
+  if (state !== 'draft') expect((await designer.post(`${url}/versions/1/submit`, { checks: [] })).status).toBe(200);
+  if (state === 'vetted') expect((await admin.post(`${url}/versions/1/review`, { decision: 'approve' })).status).toBe(200);
+  return url;
+}
+const blockSource = (name: string) => `block ${name}(a, b)\n  r1: res(a, b) 1k\nend\n`;
+
 interface Row {
   route: string; // "METHOD /path" exactly as in the route table
   call: (c: TeamClient) => Promise<{ status: number }>;
@@ -120,6 +132,19 @@ const ROWS: Row[] = [
   { route: 'POST /workspaces/:slug/invitations', call: (c) => c.post('/api/workspaces/strainlab/invitations', { email: `role-${++seq}@elsewhere.example`, role: 'viewer' }), expect: by(401, 403, 403, 403, 201, 403) },
   { route: 'DELETE /invitations/:id', call: async (c) => c.delete(`/api/invitations/${(await invitation()).id}`), expect: by(401, 403, 403, 403, 204, 403) },
   { route: 'GET /invitations/:token', call: async (c) => c.get(`/api/invitations/${(await invitation()).token}`), expect: all(200) },
+  { route: 'GET /workspaces/:slug/blocks', call: (c) => c.get('/api/workspaces/strainlab/blocks'), expect: by(401, 200, 200, 200, 200, 403) },
+  { route: 'POST /workspaces/:slug/blocks', call: (c) => { const n = `p${++seq}`; return c.post('/api/workspaces/strainlab/blocks', { path: `matrix/${n}`, source: blockSource(n) }); }, expect: by(401, 403, 201, 201, 201, 403) },
+  { route: 'GET /workspaces/:slug/review-queue', call: (c) => c.get('/api/workspaces/strainlab/review-queue'), expect: by(401, 403, 403, 200, 200, 403) },
+  { route: 'GET /workspaces/:slug/blocks/:category/:name', call: async (c) => c.get(await block('draft')), expect: by(401, 200, 200, 200, 200, 403) },
+  { route: 'POST /workspaces/:slug/blocks/:category/:name/versions', call: async (c) => { const url = await block('vetted'); return c.post(`${url}/versions`, { source: blockSource(url.split('/').pop()!) }); }, expect: by(401, 403, 201, 201, 201, 403) },
+  { route: 'GET /workspaces/:slug/blocks/:category/:name/versions/:version', call: async (c) => c.get(`${await block('draft')}/versions/1`), expect: by(401, 200, 200, 200, 200, 403) },
+  // A draft is its author's (the designer's) to edit and submit.
+  { route: 'PUT /workspaces/:slug/blocks/:category/:name/versions/:version', call: async (c) => { const url = await block('draft'); return c.put(`${url}/versions/1`, { source: blockSource(url.split('/').pop()!) }); }, expect: by(401, 403, 200, 403, 403, 403) },
+  { route: 'POST /workspaces/:slug/blocks/:category/:name/versions/:version/submit', call: async (c) => c.post(`${await block('draft')}/versions/1/submit`, { checks: [] }), expect: by(401, 403, 200, 403, 403, 403) },
+  // Vetting: reviewers and admins other than the author.
+  { route: 'POST /workspaces/:slug/blocks/:category/:name/versions/:version/review', call: async (c) => c.post(`${await block('in_review')}/versions/1/review`, { decision: 'approve' }), expect: by(401, 403, 403, 200, 200, 403) },
+  { route: 'POST /workspaces/:slug/blocks/:category/:name/versions/:version/retire', call: async (c) => c.post(`${await block('vetted')}/versions/1/retire`), expect: by(401, 403, 403, 403, 200, 403) },
+  { route: 'GET /workspaces/:slug/library/:category/:name/:version', call: async (c) => c.get((await block('vetted')).replace('/blocks/', '/library/') + '/1'), expect: by(401, 200, 200, 200, 200, 403) },
   { route: 'GET /workspaces/:slug/audit', call: (c) => c.get('/api/workspaces/strainlab/audit'), expect: by(401, 403, 403, 403, 200, 403) },
 ];
 

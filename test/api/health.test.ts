@@ -34,7 +34,7 @@ describe('schema and demo data', () => {
       `SELECT table_name FROM information_schema.tables WHERE table_schema = 'public' ORDER BY table_name`,
     );
     expect(tables.map((t) => t.table_name)).toEqual([
-      'audit_log', 'invitations', 'memberships', 'migrations', 'netlist_revisions', 'netlists', 'rate_limit_hits', 'session', 'share_links', 'share_openings', 'users', 'workspaces',
+      'audit_log', 'block_versions', 'blocks', 'invitations', 'memberships', 'migrations', 'netlist_revisions', 'netlists', 'rate_limit_hits', 'reviews', 'session', 'share_links', 'share_openings', 'users', 'workspaces',
     ]);
     const [{ id: userId }] = await api.dataSource.query(`SELECT id FROM users LIMIT 1`);
     const [{ id: wsId }] = await api.dataSource.query(`SELECT id FROM workspaces WHERE slug = 'tidepool'`);

@@ -1,7 +1,8 @@
 /**
  * The seed block library: every manifest entry resolves, its file holds one block named after
- * the path's last segment with a header comment, written in the Nodewright language, and the
- * block elaborates when instantiated.
+ * the path's last segment under a `#:` doc comment (title, summary, pins, params, tags), written
+ * in the Nodewright language, and the block elaborates when instantiated. The fixtures and their
+ * checks are solved in seed-blocks.test.ts.
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -15,15 +16,18 @@ const lookup = createLibraryResolver(dir);
 
 describe('seed library', () => {
   it('has the seed blocks', () => {
-    expect(manifest.blocks.length).toBeGreaterThanOrEqual(6);
+    expect(manifest.blocks.length).toBeGreaterThanOrEqual(12);
+    expect(new Set(manifest.blocks.map((b) => `${b.path}@${b.version}`)).size).toBe(manifest.blocks.length);
     expect(manifest.blocks.map((b) => `${b.path}@${b.version}`)).toContain('mirrors/wilson_npn@3');
   });
 
   it.each(manifest.blocks.map((b) => [`${b.path}@${b.version}`, b]))('%s is a well-formed block', (_label, entry) => {
     const b = entry as (typeof manifest.blocks)[number];
     const text = readFileSync(join(dir, b.file), 'utf8');
-    expect(text.startsWith('#')).toBe(true);
+    expect(text.startsWith('#:')).toBe(true);
     expect(b.summary.length).toBeGreaterThan(10);
+    expect((b as { title?: string }).title?.length ?? 0).toBeGreaterThan(5);
+    expect(b.file).toBe(`${b.path}@${b.version}.nwl`);
     expect(b.path.split('/')[0]).toBe(b.category);
     // The language's own syntax: no dot-commands, no three-letter mega.
     expect(text).not.toMatch(/^\s*\./m);
