@@ -8,6 +8,8 @@ export default defineConfig({
           name: 'solver',
           include: ['solver/**/*.test.ts', 'test/reference/**/*.test.ts'],
           environment: 'node',
+          // Property and robustness tests run thousands of cases: generous on a busy machine.
+          testTimeout: 30000,
         },
       },
       {

@@ -11,7 +11,6 @@ import connectPgSimple from 'connect-pg-simple';
 import pg from 'pg';
 import type { DataSource } from 'typeorm';
 import { existsSync } from 'node:fs';
-import { join } from 'node:path';
 import type { ApiConfig } from './config';
 import { methodGate, routerOf } from './http/route';
 import { openApiDocument } from './http/openapi';
@@ -128,7 +127,8 @@ export function createApp(deps: AppDeps): NodewrightApp {
       // A path with a file extension is an asset that does not exist: 404, not the app page.
       if (/\.[A-Za-z0-9]{1,8}$/.test(req.path) || req.path.startsWith('/api/')) return next();
       res.setHeader('Cache-Control', 'no-cache');
-      res.sendFile(join(dir, 'index.html'));
+      // With a root, only the part below it is checked for dot-folders (the project may live in one).
+      res.sendFile('index.html', { root: dir });
     });
     app.use((req, res) => {
       res.status(404).type('text/plain').send(`Not found: ${req.path}`);
