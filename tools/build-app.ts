@@ -8,7 +8,7 @@ import { join } from 'node:path';
 import { ROOT } from './postgres';
 
 export const APP_DIST = join(ROOT, 'dist', 'nodewright', 'browser');
-const INPUTS = ['src', 'public', 'solver', 'library', 'angular.json', 'tsconfig.json', 'tsconfig.app.json', 'package-lock.json', 'ngsw-config.json'];
+const INPUTS = ['src', 'public', 'solver', 'library', 'docs', 'angular.json', 'tsconfig.json', 'tsconfig.app.json', 'package-lock.json', 'ngsw-config.json'];
 
 function newestMtime(path: string): number {
   if (!existsSync(path)) return 0;

@@ -2,9 +2,12 @@ import type { Routes } from '@angular/router';
 import { requireSignIn } from './core/session';
 
 export const routes: Routes = [
-  { path: '', pathMatch: 'full', redirectTo: 'bench' },
+  { path: '', pathMatch: 'full', title: 'Nodewright · an analog bench in the browser', loadComponent: () => import('./home/home-page').then((m) => m.HomePage) },
   { path: 'bench', title: 'Bench · Nodewright', loadComponent: () => import('./bench/bench-page').then((m) => m.BenchPage) },
-  { path: 'library', title: 'Block library · Nodewright', loadComponent: () => import('./library/library-page').then((m) => m.LibraryPage) },
+  { path: 'reference', title: 'Language reference · Nodewright', loadComponent: () => import('./reference/reference-page').then((m) => m.ReferencePage) },
+  // The block library: the current workspace's at /library, a named one at /w/:slug/library (mail links).
+  { path: 'library', title: 'Block library · Nodewright', loadChildren: () => import('./library/library.routes').then((m) => m.LIBRARY_ROUTES) },
+  { path: 'w/:slug/library', title: 'Block library · Nodewright', canActivate: [requireSignIn], loadChildren: () => import('./library/library.routes').then((m) => m.LIBRARY_ROUTES) },
   { path: 'netlists', title: 'Team netlists · Nodewright', canActivate: [requireSignIn], loadComponent: () => import('./netlists/netlists-page').then((m) => m.NetlistsPage) },
   { path: 'w/:slug/netlists', title: 'Team netlists · Nodewright', canActivate: [requireSignIn], loadComponent: () => import('./netlists/netlists-page').then((m) => m.NetlistsPage) },
   { path: 'netlists/:id/revisions', title: 'Revisions · Nodewright', canActivate: [requireSignIn], loadComponent: () => import('./netlists/revisions-page').then((m) => m.RevisionsPage) },

@@ -75,13 +75,14 @@ describe('App shell', () => {
 });
 
 describe('Routes', () => {
-  it('routes the empty path to the bench and loads every page lazily', () => {
-    expect(routes[0]).toMatchObject({ path: '', redirectTo: 'bench' });
-    expect(routes.slice(1).every((r) => r.loadComponent)).toBe(true);
+  it('routes the empty path to the front page, /reference to the language reference, and loads every page lazily', () => {
+    expect(routes[0]).toMatchObject({ path: '', pathMatch: 'full' });
+    expect(routes.some((r) => r.path === 'reference')).toBe(true);
+    expect(routes.every((r) => (r.loadComponent || r.loadChildren) && !r.redirectTo)).toBe(true);
   });
 
   it('asks for sign-in on the team pages only: the bench, library, invitations, shares and sign-in stay open', () => {
     const guarded = routes.filter((r) => r.canActivate?.includes(requireSignIn)).map((r) => r.path);
-    expect(guarded).toEqual(['netlists', 'w/:slug/netlists', 'netlists/:id/revisions', 'w/:slug/admin']);
+    expect([...guarded].sort()).toEqual(['netlists', 'netlists/:id/revisions', 'w/:slug/admin', 'w/:slug/library', 'w/:slug/netlists']);
   });
 });

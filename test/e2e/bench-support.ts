@@ -62,3 +62,25 @@ export async function cursorLine(page: Page): Promise<number> {
     return active ? lines.indexOf(active) + 1 : 0;
   });
 }
+
+/** The line (1-based) of the first editor line that starts with `prefix`; throws when there is none. */
+export async function lineStartingWith(page: Page, prefix: string): Promise<number> {
+  const line = (await page.locator('.cm-line').allTextContents()).findIndex((t) => t.startsWith(prefix)) + 1;
+  if (line === 0) throw new Error(`no line starts with "${prefix}"`);
+  return line;
+}
+
+/** Adds `text` as a new line after the last one, as a paste would (no completion pops up). */
+export async function appendLine(page: Page, text: string): Promise<void> {
+  await focusEditor(page);
+  await page.keyboard.press('Control+End');
+  const last = (await page.locator('.cm-line').last().textContent()) ?? '';
+  await page.keyboard.insertText(last.trim() === '' ? text : `\n${text}`);
+}
+
+/** Replaces the whole netlist in one edit (select all, then paste), so no emptied text is solved between. */
+export async function pasteNetlist(page: Page, text: string): Promise<void> {
+  await focusEditor(page);
+  await page.keyboard.press('Control+A');
+  await page.keyboard.insertText(text);
+}

@@ -16,8 +16,8 @@ describe('the served app shell', () => {
     const failed: string[] = [];
     page.on('requestfailed', (r) => failed.push(r.url()));
     page.on('pageerror', (e) => failed.push(e.message));
-    await page.goto(inject('baseUrl') + '/');
-    await page.waitForURL(/\/bench$/);
+    // `/` is the front page now (test/e2e/front-page.test.ts); the bench has its own address.
+    await page.goto(inject('baseUrl') + '/bench');
     await expect.poll(() => page.title()).toBe('Bench · Nodewright');
     await expect.poll(() => page.locator('.top-bar .name').textContent()).toBe('Nodewright');
     await page.evaluate(() => document.fonts.ready);

@@ -1,18 +1,22 @@
 import { TestBed } from '@angular/core/testing';
 import type { Diagnostic, SolveResult } from '../../../solver';
-import { DRAFT_BACKEND, Drafts, MemoryDraftBackend } from '../core/drafts';
+import { DRAFT_BACKEND, DRAFT_STASH, Drafts, MemoryDraftBackend, MemoryStash, STASH_KEY } from '../core/drafts';
 import { AUTOSAVE_MS, BenchStore, MAX_FILE_BYTES, slug } from './bench-store';
 import { EXAMPLES } from './examples';
 import { SOLVER_WORKER_FACTORY, SolverClient, type WorkerLike } from './solver-client';
 import { NO_NAMES, type SolveRequest, type WorkerMessage } from './solver-protocol';
 
-/** A worker that answers at once: a result with an error when the text contains `ERR`. */
+/**
+ * A worker that answers at once, titling the result by its text: a circuit error (no operating
+ * point) when the text contains `ERR`, a request error (operating point kept) when it has `REQ`.
+ */
 class EchoWorker implements WorkerLike {
   onmessage: ((event: MessageEvent<WorkerMessage>) => void) | null = null;
   onerror: ((event: ErrorEvent) => void) | null = null;
   postMessage(m: SolveRequest): void {
-    const errors: Diagnostic[] = m.text.includes('ERR') ? [{ severity: 'error', code: 'syntax', line: 1, col: 1, message: 'bad' }] : [];
-    const result = { title: m.text, temp_c: 27, measures: {}, checks: [], warnings: [], errors } as SolveResult;
+    const errors: Diagnostic[] = /ERR|REQ/.test(m.text) ? [{ severity: 'error', code: 'syntax', line: 1, col: 1, message: 'bad' }] : [];
+    const op = m.text.includes('ERR') ? undefined : { nodes: {}, sources: {}, parts: {}, devices: {} };
+    const result = { title: m.text, temp_c: 27, op, measures: {}, checks: [], warnings: [], errors } as SolveResult;
     queueMicrotask(() => this.onmessage?.({ data: { type: 'solved', id: m.id, result, text: m.text, names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>));
   }
   terminate(): void {}
@@ -21,13 +25,22 @@ class EchoWorker implements WorkerLike {
 describe('BenchStore', () => {
   let store: BenchStore;
   let drafts: Drafts;
+  let backend: MemoryDraftBackend;
+  let stash: MemoryStash;
 
-  beforeEach(() => {
+  function configure(): void {
     TestBed.configureTestingModule({
-      providers: [BenchStore, SolverClient, { provide: SOLVER_WORKER_FACTORY, useValue: () => new EchoWorker() }, { provide: DRAFT_BACKEND, useValue: new MemoryDraftBackend() }],
+      providers: [BenchStore, SolverClient, { provide: SOLVER_WORKER_FACTORY, useValue: () => new EchoWorker() },
+        { provide: DRAFT_BACKEND, useValue: backend }, { provide: DRAFT_STASH, useValue: stash }],
     });
     store = TestBed.inject(BenchStore);
     drafts = TestBed.inject(Drafts);
+  }
+
+  beforeEach(() => {
+    backend = new MemoryDraftBackend();
+    stash = new MemoryStash();
+    configure();
   });
 
   async function solved(text: string): Promise<void> {
@@ -37,15 +50,20 @@ describe('BenchStore', () => {
     await Promise.resolve();
   }
 
-  it('shows the newest clean result, and the last clean one (stale) while the text has errors', async () => {
+  it('shows the newest result whenever its circuit solved, and the last that solved (stale) when it did not', async () => {
     await solved('good one');
     expect(store.shown()?.title).toBe('good one');
+    expect(store.stale()).toBe(false);
+    // A broken request line: the circuit still solved, so its results are the ones shown.
+    await solved('new value, REQ broken measure');
+    expect(store.shown()?.title).toBe('new value, REQ broken measure');
     expect(store.stale()).toBe(false);
     await solved('good two');
     await solved('half-typed ERR');
     expect(store.shown()?.title).toBe('good two');
     expect(store.shownText()).toBe('good two');
     expect(store.stale()).toBe(true);
+    expect(store.staleReason()).toBe('circuit');
     expect(store.diagnostics()).toHaveLength(1);
     await solved('good three');
     expect(store.shown()?.title).toBe('good three');
@@ -79,6 +97,45 @@ describe('BenchStore', () => {
     } finally {
       vi.useRealTimers();
     }
+  });
+
+  it('writes the draft at once when the page is hidden, without waiting for the autosave', async () => {
+    await store.openExample(EXAMPLES[0]);
+    store.edit('title Hidden at once\n');
+    Object.defineProperty(document, 'visibilityState', { value: 'hidden', configurable: true });
+    try {
+      document.dispatchEvent(new Event('visibilitychange'));
+      await vi.waitFor(async () => expect((await drafts.refresh()).map((d) => d.title)).toEqual(['Hidden at once']));
+      expect(store.saveState()).toBe('saved');
+    } finally {
+      delete (document as { visibilityState?: string }).visibilityState;
+    }
+  });
+
+  it('keeps the newest text in the stash synchronously; a reload right after typing restores it, in one draft', async () => {
+    await store.restore(EXAMPLES[0]);
+    store.edit('title Typed just before the reload\n');
+    expect(JSON.parse([...stash.items.values()][0]).text).toBe('title Typed just before the reload\n');
+    expect(await backend.all()).toEqual([]);
+    // The page goes away: its last write lands, but not the removal of the stash.
+    TestBed.resetTestingModule();
+    await vi.waitFor(async () => expect(await backend.all()).toHaveLength(1));
+    stash.setItem(STASH_KEY, JSON.stringify({ text: 'title Typed just before the reload\n' }));
+    configure();
+    await store.restore(EXAMPLES[0]);
+    expect(store.source()).toBe('title Typed just before the reload\n');
+    expect(store.draftId()).toBeDefined();
+    const all = await backend.all();
+    expect(all.map((d) => d.text)).toEqual(['title Typed just before the reload\n']);
+    expect(stash.items.size).toBe(0);
+  });
+
+  it('empties the stash once the draft holds the text', async () => {
+    await store.openExample(EXAMPLES[0]);
+    store.edit('title Saved\n');
+    expect(stash.items.size).toBe(1);
+    await store.saveNow();
+    expect(stash.items.size).toBe(0);
   });
 
   it('leaves no draft behind for an example that was only looked at; Ctrl-S makes one', async () => {

@@ -4,10 +4,13 @@
  * diagnostics, and the line the editor should reveal.
  *
  * Solving goes through SolverClient (a Web Worker); storage through Drafts (IndexedDB). Every
- * edit is autosaved into the open draft shortly after typing stops, so nothing is lost to a
- * reload, a closed tab or a stopped server. Saving to the team server is TeamSync's business;
- * this store only keeps the link (`remote`) and writes it with the draft.
+ * edit is autosaved into the open draft shortly after typing stops, and at once when the page is
+ * hidden or left; until that write is done the text also waits in Drafts' synchronous stash,
+ * moved into its draft on the next visit. So nothing is lost to a reload, a closed tab or a
+ * stopped server. Saving to the team server is TeamSync's business; this store only keeps the
+ * link (`remote`) and writes it with the draft.
  */
+import { DOCUMENT } from '@angular/common';
 import { computed, DestroyRef, inject, Injectable, signal } from '@angular/core';
 import { Drafts, draftTitle, UNTITLED, type Draft, type DraftRemote } from '../core/drafts';
 import type { EditorDocument, RevealRequest } from './editor/netlist-editor';
@@ -70,19 +73,35 @@ export class BenchStore {
   readonly shown = this.view.shown;
   readonly shownText = this.view.shownText;
   readonly stale = this.view.stale;
+  readonly staleReason = this.view.staleReason;
 
   private nextKey = 1;
   private revealSeq = 0;
   private saveTimer: ReturnType<typeof setTimeout> | undefined;
   private saving: Promise<void> = Promise.resolve();
+  /** The text a page left unsaved last time, moved into its draft before anything else opens. */
+  private readonly recovered = this.drafts.recoverStash();
 
   constructor() {
-    inject(DestroyRef).onDestroy(() => void this.flushSave());
+    // A hidden page may be discarded or closed without another event: write the draft now.
+    const doc = inject(DOCUMENT);
+    const view = doc.defaultView;
+    const onHidden = () => {
+      if (doc.visibilityState === 'hidden') void this.flushSave();
+    };
+    const onPageHide = () => void this.flushSave();
+    doc.addEventListener('visibilitychange', onHidden);
+    view?.addEventListener('pagehide', onPageHide);
+    inject(DestroyRef).onDestroy(() => {
+      doc.removeEventListener('visibilitychange', onHidden);
+      view?.removeEventListener('pagehide', onPageHide);
+      void this.flushSave();
+    });
   }
 
-  /** Reopens the last draft, or opens `fallback` as a new unsaved netlist. */
+  /** Reopens the last draft (with any text a reload left unsaved), or opens `fallback` as a new unsaved netlist. */
   async restore(fallback: Example): Promise<void> {
-    const last = await this.drafts.lastOpened();
+    const last = (await this.recovered) ?? (await this.drafts.lastOpened());
     void this.drafts.refresh();
     if (last) this.showDraft(last);
     else this.show(fallback.text, undefined, undefined);
@@ -93,6 +112,7 @@ export class BenchStore {
     this.source.set(text);
     this.client.edit(text);
     this.saveState.set('unsaved');
+    this.drafts.stash({ draftId: this.draftId(), text, fileName: this.fileName(), label: this.label(), remote: this.remote() });
     if (this.saveTimer !== undefined) clearTimeout(this.saveTimer);
     this.saveTimer = setTimeout(() => void this.flushSave(), AUTOSAVE_MS);
   }
@@ -218,7 +238,7 @@ export class BenchStore {
     this.remote.set(meta.remote);
     // Nothing to save until it is edited: browsing the examples leaves no drafts behind.
     this.saveState.set('saved');
-    this.client.forgetClean();
+    this.client.forgetLastSolved();
     this.client.solveNow(text);
   }
 }

@@ -12,20 +12,24 @@ import { ChecksPanel } from './panels/checks-panel';
 import { MeasuresPanel } from './panels/measures-panel';
 import { ModesPanel } from './panels/modes-panel';
 import { ResponsePanel } from './panels/response-panel';
+import { TransferPanel } from './panels/transfer-panel';
 import { ResultsSummary } from './results-summary';
 import type { SolveStatus } from './solver-client';
 
+let noteIds = 0;
+
 @Component({
   selector: 'nw-results-panels',
-  imports: [ResultsSummary, Cautions, MatTabsModule, BiasPanel, ResponsePanel, ModesPanel, ChecksPanel, MeasuresPanel],
+  imports: [ResultsSummary, Cautions, MatTabsModule, BiasPanel, ResponsePanel, ModesPanel, ChecksPanel, MeasuresPanel, TransferPanel],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <nw-results-summary [result]="result()" [stale]="stale()" [errorCount]="errorCount()"
       [status]="status()" [slow]="slow()" [solveMs]="solveMs()" [failure]="failure()"
       (cancel)="cancel.emit()" />
-    <mat-tab-group class="panels" [class.stale]="stale() || slow()" animationDuration="0ms" mat-stretch-tabs="false" mat-align-tabs="start">
+    @if (stale()) { <p class="stale-note" [id]="noteId" role="note">These figures are from an earlier version of the netlist.</p> }
+    <mat-tab-group class="panels" [class.stale]="stale() || slow()" [attr.aria-describedby]="stale() ? noteId : null" animationDuration="0ms" mat-stretch-tabs="false" mat-align-tabs="start">
       <mat-tab label="Bias">
-        <ng-template matTabContent><div class="panel"><nw-bias-panel [result]="result()" /></div></ng-template>
+        <ng-template matTabContent><div class="panel"><nw-bias-panel [result]="result()" [stale]="stale()" /></div></ng-template>
       </mat-tab>
       <mat-tab label="Response">
         <ng-template matTabContent><div class="panel"><nw-response-panel [result]="result()" /></div></ng-template>
@@ -33,13 +37,16 @@ import type { SolveStatus } from './solver-client';
       <mat-tab label="Modes">
         <ng-template matTabContent><div class="panel"><nw-modes-panel [result]="result()" /></div></ng-template>
       </mat-tab>
+      <mat-tab label="Transfer">
+        <ng-template matTabContent><div class="panel"><nw-transfer-panel [result]="result()" /></div></ng-template>
+      </mat-tab>
       <mat-tab>
         <ng-template mat-tab-label>
           Checks &amp; measures
-          @if (failedChecks() > 0) { <span class="badge fail" [attr.aria-label]="failedChecks() + ' failing'">{{ failedChecks() }} fail</span> }
+          @if (failedChecks() > 0) { <span class="badge" [class.fail]="!stale()" [class.old]="stale()" [attr.aria-label]="failedChecks() + (stale() ? ' failing in an earlier version' : ' failing')">{{ failedChecks() }} fail</span> }
         </ng-template>
         <ng-template matTabContent><div class="panel">
-          <nw-checks-panel [result]="result()" [netlist]="text()" (lineSelected)="lineSelected.emit($event)" />
+          <nw-checks-panel [result]="result()" [netlist]="text()" [stale]="stale()" (lineSelected)="lineSelected.emit($event)" />
           <h2 class="sub">Measures</h2>
           <nw-measures-panel [result]="result()" [netlist]="text()" (lineSelected)="lineSelected.emit($event)" />
         </div></ng-template>
@@ -51,12 +58,17 @@ import type { SolveStatus } from './solver-client';
     :host { display: flex; flex-direction: column; min-height: 0; min-width: 0; }
     .panels { flex: 1; min-height: 0; border: 1px solid var(--mat-sys-outline-variant); border-radius: 8px;
       background: var(--mat-sys-surface-container-lowest); }
-    .panels.stale .panel { opacity: 0.62; }
+    /* Stale figures are marked by the note and a hatched edge, not by fading (faded text fails contrast). */
+    .panels.stale { border-color: #c9a24a; background-image: repeating-linear-gradient(135deg, transparent 0 10px, rgba(201, 162, 74, 0.07) 10px 20px); }
+    .panels.stale ::ng-deep .tag.pass { color: var(--mat-sys-on-surface-variant); background: transparent; border: 1px dashed var(--mat-sys-outline); }
+    .stale-note { margin: 0 0 4px; padding: 2px 8px; font-size: 0.8125rem; color: #6b4600; background: #fbecc8; border-radius: 4px; }
     .panel { padding: 10px 12px; }
     :host ::ng-deep .panels .mat-mdc-tab-body-wrapper { flex: 1 1 auto; min-height: 0; }
-    :host ::ng-deep .panels .mat-mdc-tab-body-content { overflow: auto; }
+    /* Contained: a result's new numbers re-lay out the open panel only, not the page. */
+    :host ::ng-deep .panels .mat-mdc-tab-body-content { overflow: auto; contain: strict; }
     .badge { margin-left: 6px; padding: 0 6px; border-radius: 8px; font-size: 0.75rem; font-weight: 700; }
     .badge.fail { background: #f7d9d6; color: #7a1812; }
+    .badge.old { border: 1px dashed var(--mat-sys-outline); color: var(--mat-sys-on-surface-variant); }
     .sub { font: var(--mat-sys-title-small); margin: 18px 0 6px; color: var(--mat-sys-on-surface-variant); }
     .caution { display: block; flex: none; }
     .caution ::ng-deep .caution { margin-top: 8px; padding: 6px 10px; font-size: 0.8125rem; }
@@ -67,7 +79,7 @@ export class ResultsPanels {
   readonly result = input<SolveResult | undefined>();
   /** The text of that result (its check and measure lines). */
   readonly text = input('');
-  /** The result is older than the text (the text has errors). */
+  /** The result is not the current text's (see SolveView): every figure is marked, no pass is green. */
   readonly stale = input(false);
   readonly errorCount = input(0);
   readonly status = input<SolveStatus>('idle');
@@ -80,5 +92,6 @@ export class ResultsPanels {
   /** A check or measure was chosen: its line in the netlist. */
   readonly lineSelected = output<number>();
 
+  protected readonly noteId = `nw-stale-note-${++noteIds}`;
   protected readonly failedChecks = computed(() => this.result()?.checks.filter((c) => !c.pass).length ?? 0);
 }

@@ -1,6 +1,8 @@
 /**
  * The line above the result panels that a designer reads first: do the checks pass, the key
  * figures, how fresh the numbers are — and, while a long solve runs, its progress and a cancel.
+ * Figures from an earlier version of the netlist (`stale`) are marked so, and never show a pass
+ * in green.
  */
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
@@ -17,10 +19,11 @@ function db(value: number | undefined): string {
   imports: [MatButtonModule, MatProgressBarModule],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    <div class="line" aria-live="polite">
+    <div class="line" aria-live="polite" [class.old]="stale()">
       @if (checks(); as c) {
-        <span class="verdict" [class.fail]="c.failed > 0" [class.pass]="c.failed === 0 && c.total > 0">
+        <span class="verdict" [class.fail]="!stale() && c.failed > 0" [class.pass]="!stale() && c.failed === 0 && c.total > 0" [class.stale]="stale()">
           @if (c.total === 0) { No checks }
+          @else if (stale()) { <span aria-hidden="true">{{ c.failed === 0 ? '✓' : '✕' }}</span> {{ c.total - c.failed }} of {{ c.total }} {{ c.total === 1 ? 'check' : 'checks' }} passed in an earlier version }
           @else if (c.failed === 0) { <span aria-hidden="true">✓</span> {{ c.total === 1 ? 'The check passes' : 'All ' + c.total + ' checks pass' }} }
           @else { <span aria-hidden="true">✕</span> {{ c.failed }} of {{ c.total }} {{ c.total === 1 ? 'check fails' : 'checks fail' }} }
         </span>
@@ -30,12 +33,12 @@ function db(value: number | undefined): string {
         <span class="fig"><abbr title="common-mode rejection ratio |adm/acm|">CMRR</abbr> {{ db(p.cmrr_db) }}</span>
       }
       <span class="spacer"></span>
-      @if (stale()) {
-        <span class="stale" role="status">Showing the last result that solved — fix the {{ errorCount() === 1 ? 'error' : errorCount() + ' errors' }} in the editor</span>
+      @if (status() === 'failed') {
+        <span class="stale" role="alert">The solver stopped: {{ failure() }}</span>
       } @else if (status() === 'cancelled') {
         <span class="stale" role="status">Solve cancelled — press Solve or edit to run it again</span>
-      } @else if (status() === 'failed') {
-        <span class="stale" role="alert">The solver stopped: {{ failure() }}</span>
+      } @else if (stale() && !slow()) {
+        <span class="stale" role="status">Showing the last result that solved — fix the {{ errorCount() === 1 ? 'error' : errorCount() + ' errors' }} in the editor</span>
       } @else if (solveMs() !== undefined && status() === 'idle') {
         <span class="time">solved in {{ solveMs()! < 10 ? solveMs()!.toFixed(1) : solveMs()!.toFixed(0) }} ms</span>
       }
@@ -56,6 +59,8 @@ function db(value: number | undefined): string {
     .verdict { font-weight: 700; padding: 2px 10px; border-radius: 12px; background: var(--mat-sys-surface-container-high); }
     .verdict.pass { background: #d7eedf; color: #0c4a2f; }
     .verdict.fail { background: #f7d9d6; color: #7a1812; }
+    .verdict.stale { background: transparent; color: var(--mat-sys-on-surface-variant); border: 1px dashed var(--mat-sys-outline); font-weight: 600; }
+    .old .fig { color: var(--mat-sys-on-surface-variant); font-style: italic; }
     .fig { font-variant-numeric: tabular-nums; }
     abbr { text-decoration: none; color: var(--mat-sys-on-surface-variant); }
     .spacer { flex: 1; }
@@ -68,6 +73,7 @@ function db(value: number | undefined): string {
 })
 export class ResultsSummary {
   readonly result = input<SolveResult | undefined>();
+  /** The result is from an earlier version of the netlist (see SolveView). */
   readonly stale = input(false);
   readonly errorCount = input(0);
   readonly status = input<SolveStatus>('idle');

@@ -2,11 +2,65 @@
  * What the results show, derived from a SolverClient's replies. The bench and the shared view
  * both read their numbers through this one class, so a reviewer opening a share link sees
  * exactly what the author's bench showed for the same text.
+ *
+ * The rule (docs/netlist.md, note 19): a mistake confined to a request line (measure, check,
+ * analyze, ports) drops that request only, and the circuit still solves — so the panels show the
+ * current text's results, request errors and all. Only when the circuit itself could not be
+ * solved (no operating point) do they fall back on the last result that solved, and then that
+ * result is marked stale, as it is after a cancel, a worker failure or while a long solve runs.
  */
 import { computed, type Signal } from '@angular/core';
 import type { Diagnostic, SolveResult } from '../../../solver';
-import type { SolverClient } from './solver-client';
+import type { SolverClient, SolveStatus } from './solver-client';
 import { NO_NAMES, type NetlistNames, type SolveReply } from './solver-protocol';
+
+/** Why the figures on screen are not the current text's. */
+export type StaleReason =
+  /** The text's circuit did not solve (errors in its parts, models or params, or no convergence). */
+  | 'circuit'
+  /** The solve of the current text was cancelled. */
+  | 'cancelled'
+  /** The solver worker stopped. */
+  | 'failed'
+  /** The current text is still solving, past SLOW_MS. */
+  | 'solving';
+
+/** What the client knows, as the decision reads it. */
+export interface ViewInputs {
+  /** The newest reply (for the newest text sent). */
+  reply: SolveReply | undefined;
+  /** The newest reply whose circuit solved. */
+  lastSolved: SolveReply | undefined;
+  status: SolveStatus;
+  slow: boolean;
+}
+
+/** What the panels show: a reply, and whether (and why) it is not the current text's. */
+export interface ViewDecision {
+  shown: SolveReply | undefined;
+  stale: StaleReason | undefined;
+}
+
+/** Whether a result's circuit solved: request errors leave the operating point in place. */
+export function circuitSolved(result: SolveResult): boolean {
+  return !!result.op;
+}
+
+/** The decision table of what the panels show (see the file comment). */
+export function decideView({ reply, lastSolved, status, slow }: ViewInputs): ViewDecision {
+  const fallBack = !!reply && !circuitSolved(reply.result) && !!lastSolved;
+  const shown = fallBack ? lastSolved : reply;
+  if (!shown) return { shown, stale: undefined };
+  if (status === 'failed') return { shown, stale: 'failed' };
+  if (status === 'cancelled') return { shown, stale: 'cancelled' };
+  if (slow) return { shown, stale: 'solving' };
+  return { shown, stale: fallBack ? 'circuit' : undefined };
+}
+
+/** Equal plain data (small: a netlist's diagnostics or names). */
+function sameData<T>(a: T, b: T): boolean {
+  return a === b || JSON.stringify(a) === JSON.stringify(b);
+}
 
 export class SolveView {
   /** The newest result, for the newest text. */
@@ -16,34 +70,30 @@ export class SolveView {
   readonly errorCount: Signal<number>;
   readonly names: Signal<NetlistNames>;
   readonly solveMs: Signal<number | undefined>;
-  /**
-   * What the panels show: the newest result when it solved cleanly; while the text has errors
-   * (half-typed words included) the last clean one, flagged `stale`, so the panels do not blink.
-   */
+  /** What the panels show (see `decideView`). */
   readonly shown: Signal<SolveResult | undefined>;
   /** The text of the shown result (its measure and check lines). */
   readonly shownText: Signal<string>;
+  /** Why the shown result is not the current text's, if it is not. */
+  readonly staleReason: Signal<StaleReason | undefined>;
+  /** The shown result is not the current text's: every figure is marked and nothing shows a pass in green. */
   readonly stale: Signal<boolean>;
 
   constructor(client: SolverClient) {
     this.latest = computed(() => client.reply()?.result);
+    // Most keystrokes change values, not diagnostics or names: keeping the same array (and object)
+    // then spares the editor's lint and completion, and the problems list, a redo per keystroke.
     this.diagnostics = computed(() => {
       const r = this.latest();
       return r ? [...r.errors, ...r.warnings].sort((a, b) => a.line - b.line || a.col - b.col) : [];
-    });
+    }, { equal: sameData });
     this.errorCount = computed(() => this.latest()?.errors.length ?? 0);
-    this.names = computed(() => client.reply()?.names ?? NO_NAMES);
+    this.names = computed(() => client.reply()?.names ?? NO_NAMES, { equal: sameData });
     this.solveMs = computed(() => client.reply()?.solveMs);
-    const shownReply = computed<SolveReply | undefined>(() => {
-      const reply = client.reply();
-      if (!reply || reply.result.errors.length === 0) return reply;
-      return client.lastClean() ?? reply;
-    });
-    this.shown = computed(() => shownReply()?.result);
-    this.shownText = computed(() => shownReply()?.text ?? '');
-    this.stale = computed(() => {
-      const reply = client.reply();
-      return !!reply && reply.result.errors.length > 0 && shownReply() !== reply;
-    });
+    const decision = computed(() => decideView({ reply: client.reply(), lastSolved: client.lastSolved(), status: client.status(), slow: client.slow() }));
+    this.shown = computed(() => decision().shown?.result);
+    this.shownText = computed(() => decision().shown?.text ?? '');
+    this.staleReason = computed(() => decision().stale);
+    this.stale = computed(() => decision().stale !== undefined);
   }
 }

@@ -1,6 +1,6 @@
 import { TestBed } from '@angular/core/testing';
 import type { SolveResult } from '../../../solver';
-import { DEBOUNCE_MS, IDLE_MS, QUICK_MS, SLOW_MS, SOLVER_WORKER_FACTORY, SolverClient, type WorkerLike } from './solver-client';
+import { FINISH_MS, SLOW_MS, SOLVER_WORKER_FACTORY, SolverClient, SPARE_DELAY_MS, type WorkerLike } from './solver-client';
 import { NO_NAMES, type SolveRequest, type WorkerMessage } from './solver-protocol';
 
 /** jsdom has no Worker: a fake that records what it is sent and answers when told to. */
@@ -20,10 +20,11 @@ class FakeWorker implements WorkerLike {
   terminate(): void {
     this.terminated = true;
   }
-  /** Answers the last request with a result titled by its text. */
-  answer(request = this.sent[this.sent.length - 1]): void {
+  /** Answers the last request with a result titled by its text (a circuit that solved, unless told otherwise). */
+  answer(request = this.sent[this.sent.length - 1], solved = true): void {
     if (this.terminated) return;
-    const result = { title: request.text, temp_c: 27, measures: {}, checks: [], warnings: [], errors: [] } as SolveResult;
+    const op = solved ? { nodes: {}, sources: {}, parts: {}, devices: {} } : undefined;
+    const result = { title: request.text, temp_c: 27, op, measures: {}, checks: [], warnings: [], errors: [] } as SolveResult;
     this.onmessage?.({ data: { type: 'solved', id: request.id, result, text: request.text, names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>);
   }
 }
@@ -34,67 +35,97 @@ function live(): FakeWorker[] {
 
 describe('SolverClient', () => {
   let client: SolverClient;
-  let clock = 0;
 
   beforeEach(() => {
     vi.useFakeTimers();
     FakeWorker.made = [];
-    clock = 10_000;
     TestBed.configureTestingModule({ providers: [SolverClient, { provide: SOLVER_WORKER_FACTORY, useValue: () => new FakeWorker() }] });
     client = TestBed.inject(SolverClient);
   });
   afterEach(() => vi.useRealTimers());
 
-  /** An edit at the client's clock `ms` after the previous one. */
-  function type(text: string, afterMs: number): void {
-    clock += afterMs;
-    client.edit(text, clock);
+  /** The texts each worker was sent, in order of creation. */
+  function sent(): string[][] {
+    return FakeWorker.made.map((w) => w.sent.map((r) => r.text));
   }
 
-  it('solves an edit made after a pause almost at once, and never on the main thread', () => {
+  /** A first solve that took `ms`, so the client knows how long solves of this netlist take. */
+  function firstSolve(text: string, ms: number): FakeWorker {
+    client.solveNow(text);
+    vi.advanceTimersByTime(ms);
+    const w = live()[0];
+    w.answer();
+    return w;
+  }
+
+  it('solves every edit at once, in the worker, with no quiet period to wait for', () => {
     client.warmUp();
     expect(FakeWorker.made).toHaveLength(1);
-    type('a', IDLE_MS + 1);
+    client.edit('a');
     expect(client.status()).toBe('waiting');
-    vi.advanceTimersByTime(QUICK_MS - 1);
-    expect(FakeWorker.made[0].sent).toHaveLength(0);
-    vi.advanceTimersByTime(1);
-    expect(FakeWorker.made[0].sent.map((r) => r.text)).toEqual(['a']);
+    vi.advanceTimersByTime(0);
+    expect(sent()).toEqual([['a']]);
     expect(client.status()).toBe('solving');
     FakeWorker.made[0].answer();
     expect(client.reply()?.result.title).toBe('a');
     expect(client.status()).toBe('idle');
   });
 
-  it('coalesces a burst of keystrokes into one solve, DEBOUNCE_MS after the last', () => {
-    type('r', IDLE_MS + 1);
-    vi.advanceTimersByTime(QUICK_MS);
-    FakeWorker.made[0].answer();
-    for (const text of ['rc', 'rc1', 'rc1:']) {
-      type(text, 40);
-      vi.advanceTimersByTime(40);
-    }
-    // 40 ms after the last keystroke of the burst: nothing new sent yet.
-    expect(FakeWorker.made[0].sent.map((r) => r.text)).toEqual(['r']);
-    vi.advanceTimersByTime(DEBOUNCE_MS - 40 - 1);
-    expect(FakeWorker.made[0].sent).toHaveLength(1);
-    vi.advanceTimersByTime(1);
-    expect(FakeWorker.made[0].sent.map((r) => r.text)).toEqual(['r', 'rc1:']);
+  it('makes one solve of the edits of one task (a paste and its autoindent)', () => {
+    client.edit('r');
+    client.edit('rc');
+    vi.advanceTimersByTime(0);
+    expect(sent()).toEqual([['rc']]);
   });
 
-  it('terminates a worker busy with stale text and solves the newest text on a fresh one', () => {
-    client.solveNow('slow netlist');
-    const first = FakeWorker.made[0];
-    expect(first.sent).toHaveLength(1);
-    type('newer', 50);
+  it('lets a nearly finished stale solve end, drops its reply, and then solves only the newest text', () => {
+    const w = firstSolve('r', 5);
+    client.edit('rc');
+    vi.advanceTimersByTime(0);
+    // Two more keystrokes while `rc` solves: it is stale, but the last solve says it ends soon.
+    client.edit('rc1');
+    vi.advanceTimersByTime(0);
+    client.edit('rc1:');
+    vi.advanceTimersByTime(0);
+    expect(w.terminated).toBe(false);
+    expect(client.status()).toBe('waiting');
+    w.answer(); // the reply for `rc` is dropped and `rc1:` follows on the same worker
+    expect(client.reply()?.result.title).toBe('r');
+    expect(sent()[0]).toEqual(['r', 'rc', 'rc1:']);
+    w.answer();
+    expect(client.reply()?.result.title).toBe('rc1:');
+    expect(client.abandoned()).toBe(0);
+  });
+
+  it(`terminates a stale solve that has not ended within ${FINISH_MS} ms and hands the newest text to the spare`, () => {
+    const first = firstSolve('quick', 5);
+    vi.advanceTimersByTime(SPARE_DELAY_MS);
+    expect(FakeWorker.made).toHaveLength(2); // the spare, loaded after the first reply
+    const spare = FakeWorker.made[1];
+    client.solveNow('turned slow');
+    client.edit('newer');
+    vi.advanceTimersByTime(FINISH_MS - 1);
+    expect(first.terminated).toBe(false);
+    vi.advanceTimersByTime(1);
     expect(first.terminated).toBe(true);
     expect(client.abandoned()).toBe(1);
-    expect(live()).toHaveLength(1);
-    vi.advanceTimersByTime(DEBOUNCE_MS);
-    const second = live()[0];
-    expect(second.sent.map((r) => r.text)).toEqual(['newer']);
-    second.answer();
+    // The spare takes the newest text at once (its module is loaded); a new spare starts loading.
+    expect(spare.sent.map((r) => r.text)).toEqual(['newer']);
+    expect(live()).toHaveLength(2);
+    spare.answer();
     expect(client.reply()?.result.title).toBe('newer');
+  });
+
+  it('terminates at once a stale solve that the last solve says will run long', () => {
+    firstSolve('slow netlist', 400);
+    client.solveNow('slow netlist, edited');
+    vi.advanceTimersByTime(50);
+    client.edit('newer');
+    vi.advanceTimersByTime(0);
+    expect(FakeWorker.made[0].terminated).toBe(true);
+    expect(client.abandoned()).toBe(1);
+    expect(live()).toHaveLength(1);
+    expect(live()[0].sent.map((r) => r.text)).toEqual(['newer']);
   });
 
   it('ignores a late reply to a request that was superseded', () => {
@@ -103,12 +134,21 @@ describe('SolverClient', () => {
     const firstRequest = w.sent[0];
     w.answer();
     client.solveNow('two');
-    const w2 = live()[0];
     // A reply carrying the old id (as a worker that was not terminated might send) is dropped.
-    w2.onmessage?.({ data: { type: 'solved', id: firstRequest.id, result: { title: 'stale' } as SolveResult, text: 'one', names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>);
+    w.onmessage?.({ data: { type: 'solved', id: firstRequest.id, result: { title: 'stale' } as SolveResult, text: 'one', names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>);
     expect(client.reply()?.result.title).toBe('one');
-    w2.answer();
+    w.answer();
     expect(client.reply()?.result.title).toBe('two');
+  });
+
+  it('keeps the last reply whose circuit solved, and forgets it for another netlist', () => {
+    const w = firstSolve('solves', 5);
+    client.solveNow('circuit broken');
+    w.answer(undefined, false);
+    expect(client.reply()?.result.title).toBe('circuit broken');
+    expect(client.lastSolved()?.result.title).toBe('solves');
+    client.forgetLastSolved();
+    expect(client.lastSolved()).toBeUndefined();
   });
 
   it('raises `slow` only for a solve longer than SLOW_MS, and cancel stops it and keeps the last result', () => {
@@ -127,15 +167,15 @@ describe('SolverClient', () => {
     expect(client.status()).toBe('cancelled');
     expect(FakeWorker.made[0].terminated).toBe(true);
     expect(client.reply()?.result.title).toBe('quick');
-    // The fresh worker is idle and ready for the next text.
-    expect(live()).toHaveLength(1);
-    expect(live()[0].sent).toHaveLength(0);
+    // A worker is idle and ready for the next text.
+    expect(live().length).toBeGreaterThanOrEqual(1);
+    expect(live().every((w) => w.sent.length === 0)).toBe(true);
   });
 
   it('cancel also drops a solve that was only scheduled', () => {
-    type('pending', IDLE_MS + 1);
+    client.edit('pending');
     client.cancel();
-    vi.advanceTimersByTime(DEBOUNCE_MS * 2);
+    vi.advanceTimersByTime(SLOW_MS);
     expect(FakeWorker.made.flatMap((w) => w.sent)).toEqual([]);
   });
 
@@ -144,17 +184,19 @@ describe('SolverClient', () => {
     FakeWorker.made[0].onerror?.({ message: 'script failed', preventDefault() {} } as ErrorEvent);
     expect(client.status()).toBe('failed');
     expect(client.failure()).toBe('script failed');
-    type('y', IDLE_MS + 1);
-    vi.advanceTimersByTime(QUICK_MS);
+    client.edit('y');
+    vi.advanceTimersByTime(0);
     expect(live()).toHaveLength(1);
     live()[0].answer();
     expect(client.reply()?.result.title).toBe('y');
     expect(client.failure()).toBeUndefined();
   });
 
-  it('terminates its worker when the bench goes away', () => {
-    client.warmUp();
+  it('terminates its workers, spare included, when the bench goes away', () => {
+    firstSolve('a', 5);
+    vi.advanceTimersByTime(SPARE_DELAY_MS);
+    expect(FakeWorker.made).toHaveLength(2);
     TestBed.resetTestingModule();
-    expect(FakeWorker.made[0].terminated).toBe(true);
+    expect(live()).toHaveLength(0);
   });
 });

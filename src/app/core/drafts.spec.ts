@@ -1,5 +1,5 @@
 import { TestBed } from '@angular/core/testing';
-import { DRAFT_BACKEND, DRAFT_CLOCK, Drafts, MAX_DRAFTS, MemoryDraftBackend, titleOf, UNTITLED, type DraftBackend, type DraftRemote } from './drafts';
+import { DRAFT_BACKEND, DRAFT_CLOCK, DRAFT_STASH, Drafts, MAX_DRAFTS, MemoryDraftBackend, MemoryStash, STASH_KEY, titleOf, UNTITLED, type DraftBackend, type DraftRemote } from './drafts';
 
 describe('titleOf', () => {
   it('takes the first title line, without its comment', () => {
@@ -17,12 +17,14 @@ describe('titleOf', () => {
 describe('Drafts', () => {
   let drafts: Drafts;
   let backend: MemoryDraftBackend;
+  let stash: MemoryStash;
   let now = 1_000;
 
   beforeEach(() => {
     backend = new MemoryDraftBackend();
+    stash = new MemoryStash();
     now = 1_000;
-    TestBed.configureTestingModule({ providers: [{ provide: DRAFT_BACKEND, useValue: backend }, { provide: DRAFT_CLOCK, useValue: () => now }] });
+    TestBed.configureTestingModule({ providers: [{ provide: DRAFT_BACKEND, useValue: backend }, { provide: DRAFT_CLOCK, useValue: () => now }, { provide: DRAFT_STASH, useValue: stash }] });
     drafts = TestBed.inject(Drafts);
   });
 
@@ -139,6 +141,56 @@ describe('Drafts', () => {
       const d = await drafts.create('title Core\n', undefined, { remote });
       const stored = await backend.get(d.id);
       expect(structuredClone(stored)).toEqual(stored);
+    });
+  });
+
+  describe('the stash of text not yet written', () => {
+    it('moves a stash of a netlist never saved into a new draft, opened next, and empties the stash', async () => {
+      drafts.stash({ text: 'title Typed, then reloaded\n', fileName: 'pair.nwl' });
+      const draft = await drafts.recoverStash();
+      expect(draft).toMatchObject({ title: 'Typed, then reloaded', text: 'title Typed, then reloaded\n', fileName: 'pair.nwl' });
+      expect((await drafts.lastOpened())?.id).toBe(draft!.id);
+      expect(stash.items.has(STASH_KEY)).toBe(false);
+      expect(await drafts.recoverStash()).toBeUndefined();
+    });
+
+    it('writes a stash into its own draft, link and label kept, and reuses a draft that already holds the text', async () => {
+      const remote: DraftRemote = { netlistId: 'n1', workspace: 'strainlab', name: 'Core', baseVersion: 2, savedText: 'title Core\n' };
+      const d = await drafts.create('title Core\n', undefined, { remote });
+      await drafts.create('title Other\n');
+      drafts.stash({ draftId: d.id, text: 'title Core, edited\n', remote });
+      expect((await drafts.recoverStash())?.id).toBe(d.id);
+      expect(await backend.get(d.id)).toMatchObject({ text: 'title Core, edited\n', remote });
+      expect((await drafts.lastOpened())?.id).toBe(d.id);
+
+      // The page wrote its draft but unloaded before removing the stash: no second draft.
+      drafts.stash({ text: 'title Other\n' });
+      await drafts.recoverStash();
+      expect((await backend.all()).filter((x) => x.text === 'title Other\n')).toHaveLength(1);
+    });
+
+    it('keeps a newer stash when clearing an older text, and ignores what is not a stash', async () => {
+      drafts.stash({ text: 'title Newer\n' });
+      drafts.clearStash('title Older\n');
+      expect(stash.items.has(STASH_KEY)).toBe(true);
+      drafts.clearStash('title Newer\n');
+      expect(stash.items.has(STASH_KEY)).toBe(false);
+      stash.setItem(STASH_KEY, '{not json');
+      expect(await drafts.recoverStash()).toBeUndefined();
+      stash.setItem(STASH_KEY, JSON.stringify({ draftId: 7, text: 'x' }));
+      expect(await drafts.recoverStash()).toBeUndefined();
+      expect(await backend.all()).toEqual([]);
+    });
+
+    it('keeps the stash for the next visit when the draft cannot be written', async () => {
+      const failing = new MemoryDraftBackend();
+      failing.put = () => Promise.reject(new Error('QuotaExceededError'));
+      TestBed.resetTestingModule();
+      TestBed.configureTestingModule({ providers: [{ provide: DRAFT_BACKEND, useValue: failing }, { provide: DRAFT_STASH, useValue: stash }] });
+      const d = TestBed.inject(Drafts);
+      d.stash({ text: 'title Not lost\n' });
+      expect(await d.recoverStash()).toBeUndefined();
+      expect(JSON.parse(stash.getItem(STASH_KEY)!).text).toBe('title Not lost\n');
     });
   });
 

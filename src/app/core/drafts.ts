@@ -7,6 +7,10 @@
  *
  * The logic (titles, ordering, pruning, last-opened) sits over a small storage interface so it
  * can be tested without a browser; the Dexie backend is the real one.
+ *
+ * IndexedDB writes are asynchronous and may not finish when the page unloads, so the bench also
+ * keeps the newest text not yet written in a synchronous stash (localStorage); the next visit
+ * moves it into its draft before anything else opens (`recoverStash`).
  */
 import { Injectable, InjectionToken, inject, signal } from '@angular/core';
 import Dexie, { type Table } from 'dexie';
@@ -123,6 +127,48 @@ export const DRAFT_BACKEND = new InjectionToken<DraftBackend>('draft storage', {
   factory: () => (typeof indexedDB === 'undefined' ? new MemoryDraftBackend() : new DexieDraftBackend()),
 });
 
+/** The synchronous part of Web Storage the stash uses. */
+export type StashStorage = Pick<Storage, 'getItem' | 'setItem' | 'removeItem'>;
+
+/** Where the unsaved text waits synchronously: localStorage, when the browser allows it. */
+export const DRAFT_STASH = new InjectionToken<StashStorage | undefined>('draft stash', {
+  providedIn: 'root',
+  factory: () => {
+    try {
+      return globalThis.localStorage ?? undefined;
+    } catch {
+      return undefined; // storage disabled: the IndexedDB draft is all there is
+    }
+  },
+});
+
+/** Web Storage in plain memory, for tests: what a page's localStorage keeps across a reload. */
+export class MemoryStash implements StashStorage {
+  readonly items = new Map<string, string>();
+  getItem(key: string): string | null {
+    return this.items.get(key) ?? null;
+  }
+  setItem(key: string, value: string): void {
+    this.items.set(key, value);
+  }
+  removeItem(key: string): void {
+    this.items.delete(key);
+  }
+}
+
+/** The newest text of the open netlist that may not be in its draft yet. */
+export interface Stash {
+  /** The draft it belongs to; none for a netlist never saved (an edited example). */
+  draftId?: string;
+  text: string;
+  fileName?: string;
+  label?: string;
+  remote?: DraftRemote;
+}
+
+/** The Web Storage key of the stash. */
+export const STASH_KEY = 'nodewright-unsaved-edit';
+
 /** Clock and id source, replaceable in tests. */
 export const DRAFT_CLOCK = new InjectionToken<() => number>('draft clock', { providedIn: 'root', factory: () => () => Date.now() });
 
@@ -173,6 +219,7 @@ function newId(): string {
 export class Drafts {
   private readonly backend = inject(DRAFT_BACKEND);
   private readonly now = inject(DRAFT_CLOCK);
+  private readonly stashStorage = inject(DRAFT_STASH);
   /** Every draft, most recently changed first. */
   readonly list = signal<Draft[]>([]);
   /** Set when storage failed (quota, private mode): the bench says so instead of losing work quietly. */
@@ -188,7 +235,7 @@ export class Drafts {
   async create(text: string, fileName?: string, meta: DraftMeta = {}): Promise<Draft> {
     const t = this.now();
     const draft = withMeta({ id: newId(), title: '', text, ...(fileName ? { fileName } : {}), createdAt: t, updatedAt: t }, meta);
-    await this.guard(() => this.backend.put(draft), undefined);
+    await this.put(draft);
     await this.guard(() => this.backend.setMeta(LAST_OPENED, draft.id), undefined);
     await this.prune();
     await this.refresh();
@@ -203,8 +250,11 @@ export class Drafts {
     const old = await this.guard(() => this.backend.get(id), undefined);
     const t = this.now();
     const draft = withMeta(old ? { ...old, text, updatedAt: Math.max(t, old.updatedAt) } : { id, text, title: '', createdAt: t, updatedAt: t }, meta);
-    if (old && old.text === text && old.title === draft.title && sameRemote(old.remote, draft.remote)) return old;
-    await this.guard(() => this.backend.put(draft), undefined);
+    if (old && old.text === text && old.title === draft.title && sameRemote(old.remote, draft.remote)) {
+      this.clearStash(text);
+      return old;
+    }
+    await this.put(draft);
     await this.refresh();
     return draft;
   }
@@ -239,6 +289,59 @@ export class Drafts {
     await this.refresh();
   }
 
+  /** Keeps `stash` synchronously until `clearStash`; quietly does nothing where storage is refused. */
+  stash(stash: Stash): void {
+    try {
+      this.stashStorage?.setItem(STASH_KEY, JSON.stringify(stash));
+    } catch {
+      // Quota or a storage-less window: the draft's own autosave still runs.
+    }
+  }
+
+  /** Forgets the stash once `text` is safely in a draft (a newer stash is kept); saves do this themselves. */
+  clearStash(text: string): void {
+    try {
+      if (this.readStash()?.text === text) this.stashStorage!.removeItem(STASH_KEY);
+    } catch {
+      // As in stash().
+    }
+  }
+
+  /**
+   * Moves a stash left by a page that unloaded before its draft was written into that draft (or a
+   * new one, reusing a draft that already holds the very text), makes it the last opened, and
+   * returns it. The stash goes only once the draft is written; otherwise it waits for the next visit.
+   */
+  async recoverStash(): Promise<Draft | undefined> {
+    const stash = this.readStash();
+    if (!stash) return undefined;
+    const meta: DraftMeta = { label: stash.label ?? null, remote: stash.remote ?? null };
+    let draft: Draft;
+    if (stash.draftId) draft = await this.save(stash.draftId, stash.text, meta);
+    else {
+      const same = (await this.guard(() => this.backend.all(), [])).find((d) => d.text === stash.text);
+      if (same) this.clearStash(same.text);
+      draft = same ?? (await this.create(stash.text, stash.fileName, meta));
+    }
+    if (this.readStash()?.text === stash.text) return undefined; // not written
+    await this.open(draft.id);
+    return draft;
+  }
+
+  private readStash(): Stash | undefined {
+    try {
+      return parseStash(this.stashStorage?.getItem(STASH_KEY));
+    } catch {
+      return undefined;
+    }
+  }
+
+  /** Writes a draft; once it is stored, a stash of the same text has done its work. */
+  private async put(draft: Draft): Promise<void> {
+    const stored = await this.guard(() => this.backend.put(draft).then(() => true), false);
+    if (stored) this.clearStash(draft.text);
+  }
+
   /** Keeps at most MAX_DRAFTS, dropping the least recently changed. */
   private async prune(): Promise<void> {
     const all = await this.guard(() => this.backend.all(), []);
@@ -256,5 +359,16 @@ export class Drafts {
       this.problem.set(`Drafts could not be stored in this browser (${err instanceof Error ? err.message : String(err)}).`);
       return fallback;
     }
+  }
+}
+
+/** A stash read back, or undefined when there is none or it is not one of ours. */
+function parseStash(raw: string | null | undefined): Stash | undefined {
+  if (!raw) return undefined;
+  try {
+    const value = JSON.parse(raw) as Partial<Stash> | null;
+    return value && typeof value.text === 'string' && (value.draftId === undefined || typeof value.draftId === 'string') ? (value as Stash) : undefined;
+  } catch {
+    return undefined;
   }
 }

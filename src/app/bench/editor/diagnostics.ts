@@ -1,10 +1,12 @@
 /**
  * The solver's diagnostics as CodeMirror lint diagnostics: a squiggle under the problem, its
- * message and hint on hover, a marker in the gutter.
+ * message and hint on hover with a link to the syntax in the language reference, a marker in
+ * the gutter.
  */
 import type { Diagnostic as LintDiagnostic } from '@codemirror/lint';
 import type { Text } from '@codemirror/state';
 import type { Diagnostic } from '../../../../solver';
+import { syntaxSection } from '../../reference/syntax-anchors';
 
 /** Document range of a solver diagnostic: its columns, else the word at its column, else the line. */
 export function rangeOf(doc: Text, d: Pick<Diagnostic, 'line' | 'col' | 'endCol'>): { from: number; to: number } {
@@ -30,12 +32,39 @@ export function toLintDiagnostics(doc: Text, diagnostics: readonly Diagnostic[])
       to,
       severity: d.severity === 'error' ? 'error' : 'warning',
       message: d.hint ? `${d.message} Hint: ${d.hint}.` : d.message,
-      renderMessage: () => renderMessage(d),
+      renderMessage: () => renderMessage(d, lineText(doc, d.line)),
     };
   });
 }
 
-function renderMessage(d: Diagnostic): HTMLElement {
+/** The text of a diagnostic's line, when the document has it. */
+function lineText(doc: Text, line: number): string | undefined {
+  return line >= 1 && line <= doc.lines ? doc.line(line).text : undefined;
+}
+
+/**
+ * The link to the reference section for a diagnostic. It opens a new tab: the bench keeps its
+ * text, undo history and cursor while the reader looks the syntax up.
+ */
+export function syntaxLink(d: Diagnostic, line: string | undefined): HTMLAnchorElement {
+  const section = syntaxSection(d, line);
+  const a = document.createElement('a');
+  a.className = 'nw-lint-syntax';
+  a.href = `/reference#${section.anchor}`;
+  a.target = '_blank';
+  a.rel = 'noopener';
+  a.textContent = `Syntax of ${section.topic}`;
+  // Styled here: the editor theme belongs to the editor, this link to the reference.
+  a.style.display = 'inline-block';
+  a.style.marginTop = '4px';
+  const note = document.createElement('span');
+  note.className = 'cdk-visually-hidden';
+  note.textContent = ' (opens in a new tab)';
+  a.append(note);
+  return a;
+}
+
+function renderMessage(d: Diagnostic, line: string | undefined): HTMLElement {
   const box = document.createElement('div');
   box.className = 'nw-lint-message';
   const message = document.createElement('div');
@@ -48,5 +77,6 @@ function renderMessage(d: Diagnostic): HTMLElement {
     hint.textContent = `Hint: ${d.hint}`;
     box.append(hint);
   }
+  box.append(syntaxLink(d, line));
   return box;
 }

@@ -40,6 +40,14 @@ async function mount() {
 }
 
 describe('NetlistEditor', () => {
+  it('makes the editable text the focus target of its scroller (axe: scrollable-region-focusable)', async () => {
+    const { el } = await mount();
+    const content = el.querySelector('.cm-scroller .cm-content') as HTMLElement;
+    expect(content.getAttribute('contenteditable')).toBe('true');
+    expect(content.getAttribute('tabindex')).toBe('0');
+    expect(content.getAttribute('aria-label')).toBe('Netlist editor');
+  });
+
   it('shows a read-only document that cannot be edited but can be reached from the keyboard', async () => {
     @Component({
       imports: [NetlistEditor],

@@ -188,7 +188,9 @@ export class NetlistEditor {
         ...lintKeymap,
       ]),
       editorTheme,
-      EditorView.contentAttributes.of({ 'aria-label': untracked(this.label), 'aria-multiline': 'true' }),
+      // An explicit tabindex makes the content the scroller's focus target in every checker's eyes
+      // (axe: scrollable-region-focusable), so keyboard users can reach and scroll a long netlist.
+      EditorView.contentAttributes.of({ 'aria-label': untracked(this.label), 'aria-multiline': 'true', tabindex: '0' }),
       EditorView.updateListener.of((update) => {
         if (update.docChanged) {
           performance.mark(EDIT_MARK);

@@ -1,9 +1,16 @@
 /**
- * The problems under the editor: every error and warning with its line, message and hint.
- * Choosing one moves the editor cursor to it.
+ * The problems under the editor: every error and warning with its line, message and hint, and a
+ * link to its syntax in the language reference. Choosing one moves the editor cursor to it.
  */
-import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, output } from '@angular/core';
 import type { Diagnostic } from '../../../../solver';
+import { syntaxSection, type SyntaxEntry } from '../../reference/syntax-anchors';
+import { SolverClient } from '../solver-client';
+
+interface ProblemRow {
+  d: Diagnostic;
+  syntax: SyntaxEntry;
+}
 
 @Component({
   selector: 'nw-problems-list',
@@ -18,18 +25,20 @@ import type { Diagnostic } from '../../../../solver';
         </span>
       }
     </div>
-    @if (diagnostics().length > 0) {
+    @if (rows().length > 0) {
       <ul class="items" aria-labelledby="nw-problems-head">
-        @for (d of diagnostics(); track $index) {
-          <li>
-            <button type="button" class="item" [class.error]="d.severity === 'error'" (click)="selected.emit(d)"
-              [attr.aria-label]="(d.severity === 'error' ? 'Error' : 'Warning') + ' on line ' + d.line + ': ' + d.message + (d.hint ? ' Hint: ' + d.hint : '') + '. Go to line.'">
-              <span class="badge" aria-hidden="true">{{ d.severity === 'error' ? '✕ Error' : '! Warning' }}</span>
-              <span class="where" aria-hidden="true">line {{ d.line }}</span>
-              <span class="text" aria-hidden="true">{{ d.message }}
-                @if (d.hint) { <span class="hint">Hint: {{ d.hint }}</span> }
+        @for (row of rows(); track $index) {
+          <li class="entry">
+            <!-- The button's name is its visible text, so "click Error line 3" works by voice. -->
+            <button type="button" class="item" [class.error]="row.d.severity === 'error'" (click)="selected.emit(row.d)">
+              <!-- &ngsp; keeps a space between the cells, so the words of the name stay apart. -->
+              <span class="badge"><span aria-hidden="true">{{ row.d.severity === 'error' ? '✕' : '!' }}</span> {{ row.d.severity === 'error' ? 'Error' : 'Warning' }}</span>&ngsp;<span
+                class="where">line {{ row.d.line }}</span>&ngsp;<span class="text">{{ row.d.message }}
+                @if (row.d.hint) { <span class="hint">Hint: {{ row.d.hint }}</span> }
               </span>
             </button>
+            <a class="syntax" [href]="'/reference#' + row.syntax.anchor" target="_blank" rel="noopener"
+              [title]="'The syntax of ' + row.syntax.topic + ' in the language reference'">Syntax<span class="cdk-visually-hidden"> of {{ row.syntax.topic }} (opens in a new tab)</span></a>
           </li>
         }
       </ul>
@@ -41,6 +50,8 @@ import type { Diagnostic } from '../../../../solver';
     .ok { color: #116340; }
     .count.has-errors { color: #8c1d18; font-weight: 600; }
     .items { list-style: none; margin: 0; padding: 0; overflow: auto; min-height: 0; }
+    .entry { display: grid; grid-template-columns: minmax(0, 1fr) auto; align-items: start; gap: 4px; }
+    .syntax { padding: 3px 6px; font-size: 0.8125rem; white-space: nowrap; }
     .item { display: grid; grid-template-columns: 82px 58px 1fr; gap: 6px; width: 100%; text-align: left; border: 0;
       background: transparent; color: var(--mat-sys-on-surface); font: inherit; padding: 3px 4px; border-radius: 4px; cursor: pointer; }
     .item:hover { background: var(--mat-sys-surface-container); }
@@ -52,7 +63,19 @@ import type { Diagnostic } from '../../../../solver';
 })
 export class ProblemsList {
   readonly diagnostics = input<readonly Diagnostic[]>([]);
+  /**
+   * The text the diagnostics were found in, for the statement on each line. Without it the text
+   * of the page's solver reply is used: the problems always come from that same reply.
+   */
+  readonly text = input<string>();
   readonly selected = output<Diagnostic>();
+  private readonly client = inject(SolverClient, { optional: true });
+
+  private readonly lines = computed(() => (this.text() ?? this.client?.reply()?.text ?? '').split('\n'));
+  protected readonly rows = computed<ProblemRow[]>(() => {
+    const lines = this.lines();
+    return this.diagnostics().map((d) => ({ d, syntax: syntaxSection(d, lines[d.line - 1]) }));
+  });
   protected readonly errors = computed(() => this.diagnostics().filter((d) => d.severity === 'error').length);
   protected readonly warnings = computed(() => this.diagnostics().length - this.errors());
 }

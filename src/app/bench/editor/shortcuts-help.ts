@@ -1,5 +1,6 @@
 /**
- * The help sheet: the bench's keyboard shortcuts and a reminder of the statements.
+ * The help sheet: the bench's keyboard shortcuts, a reminder of the statements and the way to
+ * the full language reference.
  */
 import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
@@ -46,6 +47,9 @@ export const SHORTCUTS: { keys: string[]; what: string }[] = [
       </table>
       <p class="note">A line reads <code>name: kind(connections) value</code>; statements start with
         <code>title param option model block use analyze ports measure check</code>; <code>#</code> starts a comment.</p>
+      <p class="reference">Every statement, with worked examples, is in the
+        <a href="/reference" target="_blank" rel="noopener">language reference<span class="visually-hidden"> (opens in a new tab)</span></a>,
+        which also opens from the <strong>Syntax</strong> link beside each problem.</p>
     </mat-dialog-content>
     <mat-dialog-actions align="end">
       <button mat-flat-button mat-dialog-close cdkFocusInitial>Close</button>
@@ -60,6 +64,7 @@ export const SHORTCUTS: { keys: string[]; what: string }[] = [
       font: 0.8125rem ui-monospace, "DejaVu Sans Mono", monospace; }
     .plus { margin: 0 3px; color: var(--mat-sys-on-surface-variant); }
     .note { margin-top: 12px; color: var(--mat-sys-on-surface-variant); }
+    .reference { margin: 8px 0 0; }
     code { font-family: ui-monospace, "DejaVu Sans Mono", monospace; font-size: 0.8125rem; }
     .visually-hidden { position: absolute; width: 1px; height: 1px; overflow: hidden; clip: rect(0 0 0 0); }
   `,

@@ -1,7 +1,10 @@
 import { TestBed } from '@angular/core/testing';
 import { solveNetlist } from '../../../../solver';
 import type { BjtOp, SolveResult } from '../../../../solver/result';
+import { namesOf } from '../netlist-names';
+import { SOLVER_WORKER_FACTORY, SolverClient } from '../solver-client';
 import { BiasPanel } from './bias-panel';
+import { formatSi } from './si-format';
 import { BROKEN, HEADROOM_TROUBLE, LOW_HEADROOM, RESISTOR_TAIL_PAIR } from './testing/netlists';
 
 async function render(result: SolveResult | undefined) {
@@ -129,9 +132,75 @@ describe('BiasPanel', () => {
     expect(rows(table(el, 'Bipolar transistors')).map((r) => r['Name'])).toEqual(['q2', 'q3', 'q1']);
   });
 
+  it('shows no device as fine in green when the result is from an earlier version of the netlist', async () => {
+    const { fixture, el } = await render(solveNetlist(RESISTOR_TAIL_PAIR));
+    expect(el.querySelector('.all-good .tag.pass')).not.toBeNull();
+    fixture.componentRef.setInput('stale', true);
+    await fixture.whenStable();
+    expect(el.querySelector('.all-good .tag.pass')).toBeNull();
+    expect(el.querySelector('.all-good .tag.stale')!.textContent).toContain('in an earlier version');
+  });
+
+  it('shows the tables, not an error, when only a request line is broken (the circuit solved)', async () => {
+    const result = solveNetlist(RESISTOR_TAIL_PAIR + 'measure broken = vce(q9)\n');
+    expect(result.errors).toHaveLength(1);
+    const { el } = await render(result);
+    expect(rows(table(el, 'Bipolar transistors')).map((r) => r['Name'])).toEqual(['q1', 'q2']);
+  });
+
   it('shows the first error instead of tables when the netlist does not solve', async () => {
     const { el } = await render(solveNetlist(BROKEN));
     expect(el.querySelector('table')).toBeNull();
     expect(el.textContent).toContain('`meg` is not a prefix.');
   });
+
+  it('says what to add when the netlist has nothing to bias yet (a new netlist)', async () => {
+    const { el } = await render(solveNetlist('title  Untitled netlist\n\n'));
+    expect(el.querySelector('input[type="search"]')).toBeNull();
+    const notice = el.querySelector('nw-panel-notice')!.textContent!;
+    expect(notice).toContain('Nothing to bias yet');
+    expect(el.querySelector('nw-panel-notice code')!.textContent).toBe('vcc: vsrc(vcc, gnd) 5 V');
+  });
+
+  it('lists the nodes in the order the netlist first names them, not alphabetically', async () => {
+    const { el } = await render(solveNetlist(RESISTOR_TAIL_PAIR));
+    expect(rows(table(el, 'Node voltages')).map((r) => r['Name'])).toEqual(['vcc', 'vee', 'ina', 'inb', 'outa', 'outb', 'tail']);
+  });
+
+  it('heads its tables one level below the bench title', async () => {
+    const { el } = await render(solveNetlist(RESISTOR_TAIL_PAIR));
+    expect([...el.querySelectorAll('h2')].map((h) => h.textContent!.trim())).toEqual(['Bipolar transistors', 'Node voltages', 'Sources', 'Parts']);
+    expect(el.querySelector('h3')).toBeNull();
+  });
+
+  it('groups every source together — voltage, current and controlled — in netlist order, apart from the parts', async () => {
+    const text = [
+      'title Sources',
+      'vcc: vsrc(vcc, gnd) 5 V',
+      'r1:  res(vcc, a) 1k',
+      'ib:  isrc(a, gnd) 1m',
+      'g1:  vccs(b, gnd, a, gnd) 1m',
+      'rb:  res(b, gnd) 1k',
+      'e1:  vcvs(c, gnd, a, gnd) 2',
+      'rc:  res(c, gnd) 1k',
+    ].join('\n');
+    TestBed.configureTestingModule({
+      providers: [SolverClient, { provide: SOLVER_WORKER_FACTORY, useValue: () => { throw new Error('no worker in a unit test'); } }],
+    });
+    const result = solveNetlist(text);
+    expect(result.errors).toEqual([]);
+    // The reply the bench's worker would send for this text: the same solver and names.
+    TestBed.inject(SolverClient).reply.set({ type: 'solved', id: 1, result, text, names: namesOf(text), solveMs: 1 });
+    const { el } = await render(result);
+    const sources = rows(table(el, 'Sources'));
+    expect(sources.map((r) => [r['Name'], r['Kind']])).toEqual([['vcc', 'vsrc'], ['ib', 'isrc'], ['g1', 'vccs'], ['e1', 'vcvs']]);
+    expect(rows(table(el, 'Parts')).map((r) => [r['Name'], r['Kind']])).toEqual([['r1', 'res'], ['rb', 'res'], ['rc', 'res']]);
+    // What the sources deliver equals what the resistors absorb (Tellegen's theorem; from memory).
+    const op = result.op!;
+    const absorbed = ['r1', 'rb', 'rc'].reduce((sum, n) => sum + op.parts[n].v * op.parts[n].i, 0);
+    const delivered = -[op.sources['vcc'], op.sources['e1'], op.parts['ib'], op.parts['g1']].reduce((sum, b) => sum + b.v * b.i, 0);
+    expect(Math.abs(delivered - absorbed) / absorbed).toBeLessThan(1e-6);
+    expect(el.querySelector('.note')!.textContent).toContain(`The sources deliver ${formatSi(absorbed, 'W')} in all`);
+  });
 });
+

@@ -1,25 +1,27 @@
-import { ChangeDetectionStrategy, Component, computed, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import type { SolveResult } from '../../../../solver/result';
+import { SolverClient } from '../solver-client';
 import {
-  BJT_COLUMNS, branchColumns, branchRows, DIODE_COLUMNS, deviceProblems, deviceRows, headroomFlag, MOS_COLUMNS, NODE_COLUMNS,
+  BJT_COLUMNS, branchColumns, branchGroups, DIODE_COLUMNS, deviceProblems, deviceRows, headroomFlag, MOS_COLUMNS, NODE_COLUMNS,
   regionFlag, regionWord, type BranchRow, type NodeRow,
 } from './bias/bias-rows';
-import { OpTable } from './bias/op-table';
-import { PanelNotice, panelNotice } from './panel-notice';
+import { OpTable, type OpColumn } from './bias/op-table';
+import { PanelNotice, panelNotice, STALE_TAG_STYLES } from './panel-notice';
 import { STATUS_STYLES } from './panel-styles';
 import { formatSi } from './si-format';
 
 const SOURCE_COLUMNS = branchColumns('p→n');
 const PART_COLUMNS = branchColumns('a→b');
+const withoutKind = <R,>(columns: readonly OpColumn<R>[]) => columns.filter((c) => c.id !== 'kind');
 
 /**
  * *Bias*: the DC operating point. Devices first (region, currents, voltages and the hybrid-pi
  * small-signal values), with every device outside its intended region or short of headroom
- * flagged by word, symbol and colour; then node voltages, sources and part currents. One filter
- * box narrows every table; each table sorts on any column.
+ * flagged by word, symbol and colour; then node voltages, sources and part currents, nodes and
+ * parts in netlist order. One filter box narrows every table; each table sorts on any column.
  */
 @Component({
   selector: 'nw-bias-panel',
@@ -39,7 +41,8 @@ const PART_COLUMNS = branchColumns('a→b');
           </ul>
         </div>
       } @else if (deviceCount() > 0) {
-        <p class="all-good" role="status"><span class="tag pass">✓ All {{ deviceCount() }} devices in their intended regions, with headroom</span></p>
+        <p class="all-good" role="status"><span class="tag" [class.pass]="!stale()" [class.stale]="stale()">✓ All {{ deviceCount() }} devices in their intended regions, with headroom
+          @if (stale()) { <span class="earlier">in an earlier version</span> }</span></p>
       }
       <div class="filter-row">
         <mat-form-field appearance="outline" subscriptSizing="dynamic" class="filter">
@@ -51,44 +54,44 @@ const PART_COLUMNS = branchColumns('a→b');
       </div>
 
       @if (bjt().length > 0) {
-        <h3>Bipolar transistors</h3>
+        <h2>Bipolar transistors</h2>
         <nw-op-table label="Bipolar transistors" [columns]="bjtColumns" [rows]="bjt()" />
       }
       @if (mos().length > 0) {
-        <h3>MOS transistors</h3>
+        <h2>MOS transistors</h2>
         <nw-op-table label="MOS transistors" [columns]="mosColumns" [rows]="mos()" />
       }
       @if (diodes().length > 0) {
-        <h3>Diodes</h3>
+        <h2>Diodes</h2>
         <nw-op-table label="Diodes" [columns]="diodeColumns" [rows]="diodes()" />
       }
       <div class="pair">
         @if (nodes().length > 0) {
           <section>
-            <h3>Node voltages</h3>
+            <h2>Node voltages</h2>
             <nw-op-table label="Node voltages" [columns]="nodeColumns" [rows]="nodes()" />
           </section>
         }
         @if (sources().length > 0) {
           <section>
-            <h3>Sources</h3>
-            <nw-op-table label="Sources" [columns]="sourceColumns" [rows]="sources()" />
+            <h2>Sources</h2>
+            <nw-op-table label="Sources" [columns]="sourceColumns()" [rows]="sources()" />
             <p class="note">{{ supplyText() }}</p>
           </section>
         }
       </div>
       @if (parts().length > 0) {
-        <h3>Parts</h3>
-        <nw-op-table label="Parts" [columns]="partColumns" [rows]="parts()" />
+        <h2>Parts</h2>
+        <nw-op-table label="Parts" [columns]="partColumns()" [rows]="parts()" />
       }
       @if (shownCount() === '0 rows match') {
         <p class="note">Nothing matches “{{ filter() }}”.</p>
       }
     }
   `,
-  styles: [STATUS_STYLES, `
+  styles: [STATUS_STYLES, STALE_TAG_STYLES, `
     :host { display: block; }
-    h3 { font-size: 0.9375rem; font-weight: 700; margin: 14px 0 6px; }
+    h2 { font-size: 0.9375rem; font-weight: 700; margin: 14px 0 6px; }
     .problems { padding: 8px 12px; border-radius: 8px; background: #FDF6E9; border: 1px solid #E6CB97; margin-bottom: 10px; }
     .problems .lead { margin: 0 0 4px; }
     .problems ul { margin: 0; padding-left: 20px; font-size: 0.875rem; }
@@ -105,19 +108,31 @@ const PART_COLUMNS = branchColumns('a→b');
 })
 export class BiasPanel {
   readonly result = input<SolveResult | undefined>();
+  /** The result is from an earlier version of the netlist: nothing is shown as fine in green. */
+  readonly stale = input(false);
   readonly filter = signal('');
 
   readonly bjtColumns = BJT_COLUMNS;
   readonly mosColumns = MOS_COLUMNS;
   readonly diodeColumns = DIODE_COLUMNS;
   readonly nodeColumns = NODE_COLUMNS;
-  readonly sourceColumns = SOURCE_COLUMNS;
-  readonly partColumns = PART_COLUMNS;
+  /** The Kind column only when the kinds are known (from the solver reply that gave this result). */
+  readonly sourceColumns = computed(() => (this.kinds().size > 0 ? SOURCE_COLUMNS : withoutKind(SOURCE_COLUMNS)));
+  readonly partColumns = computed(() => (this.kinds().size > 0 ? PART_COLUMNS : withoutKind(PART_COLUMNS)));
+  private readonly client = inject(SolverClient, { optional: true });
 
-  readonly notice = computed(() => panelNotice(this.result(), (r) => (r.op ? undefined : {
-    title: 'No operating point',
-    text: 'The DC operating point did not solve; the editor lists why.',
-  })));
+  readonly notice = computed(() => panelNotice(this.result(), (r) => {
+    if (!r.op) return { title: 'No operating point', text: 'The DC operating point did not solve; the editor lists why.' };
+    const { nodes, sources, parts, devices } = r.op;
+    if ([nodes, sources, parts, devices].every((o) => Object.keys(o).length === 0)) {
+      return {
+        title: 'Nothing to bias yet',
+        text: 'Add a supply and the parts it feeds: node voltages, currents and every transistor\'s region and hybrid-pi values appear here. For example:',
+        code: 'vcc: vsrc(vcc, gnd) 5 V',
+      };
+    }
+    return undefined;
+  }));
 
   private readonly op = computed(() => this.result()?.op);
   private readonly devices = computed(() => { const op = this.op(); return op ? deviceRows(op) : { bjt: [], mos: [], diode: [] }; });
@@ -133,9 +148,20 @@ export class BiasPanel {
   readonly bjt = computed(() => this.devices().bjt.filter((d) => this.matcher()([d.name, d.kind, regionWord(d.region), regionFlag(d)?.text ?? '', headroomFlag(d) ? 'headroom' : ''])));
   readonly mos = computed(() => this.devices().mos.filter((d) => this.matcher()([d.name, d.kind, regionWord(d.region), regionFlag(d)?.text ?? '', headroomFlag(d) ? 'headroom' : ''])));
   readonly diodes = computed(() => this.devices().diode.filter((d) => this.matcher()([d.name, d.kind, d.region])));
+  // Nodes come in the solver's order, which is the order they first appear in the netlist.
   readonly nodes = computed<NodeRow[]>(() => Object.entries(this.op()?.nodes ?? {}).map(([name, v]) => ({ name, v })).filter((n) => this.matcher()([n.name, 'node'])));
-  readonly sources = computed<BranchRow[]>(() => branchRows(this.op()?.sources ?? {}).filter((s) => this.matcher()([s.name, 'source'])));
-  readonly parts = computed<BranchRow[]>(() => branchRows(this.op()?.parts ?? {}).filter((p) => this.matcher()([p.name, 'part'])));
+
+  /**
+   * Part kinds by name, in netlist order, from the solver reply this result came in (the latest,
+   * or the last clean one while the text has errors); empty where there is no solver client.
+   */
+  private readonly kinds = computed<ReadonlyMap<string, string>>(() => {
+    const reply = [this.client?.reply(), this.client?.lastClean()].find((r) => r && r.result === this.result());
+    return new Map((reply?.names.parts ?? []).map((p) => [p.name, p.kind]));
+  });
+  private readonly branches = computed(() => { const op = this.op(); return op ? branchGroups(op, this.kinds()) : { sources: [], parts: [] }; });
+  readonly sources = computed<BranchRow[]>(() => this.branches().sources.filter((s) => this.matcher()([s.name, s.kind ?? '', 'source'])));
+  readonly parts = computed<BranchRow[]>(() => this.branches().parts.filter((p) => this.matcher()([p.name, p.kind ?? '', 'part'])));
 
   readonly shownCount = computed(() => {
     if (!this.filter().trim()) return '';
@@ -145,8 +171,7 @@ export class BiasPanel {
 
   /** What the sources deliver in all: the circuit's dissipation. */
   readonly supplyText = computed(() => {
-    const all = branchRows(this.op()?.sources ?? {});
-    const delivered = -all.reduce((sum, s) => sum + s.p, 0);
-    return `The voltage sources deliver ${formatSi(delivered, 'W')} in all; a source delivers power when its current leaves its + terminal.`;
+    const delivered = -this.branches().sources.reduce((sum, s) => sum + s.p, 0);
+    return `The sources deliver ${formatSi(delivered, 'W')} in all; a source delivers power when its current leaves its more positive terminal.`;
   });
 }

@@ -14,8 +14,9 @@ async function render(result: SolveResult | undefined, netlist?: string) {
   return { fixture, el: fixture.nativeElement as HTMLElement, lines };
 }
 
+/** The visible cells of a row (the hidden column names between them are for screen readers). */
 function cells(row: Element): string[] {
-  return [...row.children].map((c) => c.textContent!.trim());
+  return [...row.children].filter((c) => !c.classList.contains('visually-hidden')).map((c) => c.textContent!.trim());
 }
 
 describe('ChecksPanel', () => {
@@ -40,7 +41,9 @@ describe('ChecksPanel', () => {
     // vmin is a measure of vce values: its check inherits volts from the measure's expression.
     expect(cells(rows[0])).toEqual(['✗ fail', 'vmin > 0.3', '43.8 mV', '> 300 mV', '-256 mV', '27']);
     expect(cells(rows[1]).slice(0, 2)).toEqual(['✗ fail', 'id(m1) <= 100u']);
-    expect(rows[1].getAttribute('aria-label')).toContain('fails');
+    // The row is named by its visible text, with the column names read between the figures.
+    expect(rows[1].hasAttribute('aria-label')).toBe(false);
+    expect(rows[1].textContent!.replace(/\s+/g, ' ').trim()).toMatch(/^✗ fail id\(m1\) <= 100u value \S+ µA limit ≤ 100 µA margin -\S+ µA line 28$/);
   });
 
   it('writes dimensionless checks as plain figures and a product of current and voltage in watts', async () => {
@@ -62,6 +65,17 @@ describe('ChecksPanel', () => {
     expect(lines).toEqual([17]);
     expect(rows[0].tagName).toBe('BUTTON');
     expect(rows[0].type).toBe('button');
+  });
+
+  it('colours no pass or fail when the result is from an earlier version of the netlist', async () => {
+    const { fixture, el } = await render(solveNetlist(RESISTOR_TAIL_PAIR), RESISTOR_TAIL_PAIR);
+    expect(el.querySelectorAll('.tag.pass')).toHaveLength(3);
+    fixture.componentRef.setInput('stale', true);
+    await fixture.whenStable();
+    expect(el.querySelectorAll('.tag.pass, .tag.fail')).toHaveLength(0);
+    expect(el.querySelectorAll('.tag.stale')).toHaveLength(3);
+    expect(el.querySelector('.summary')!.textContent!.replace(/\s+/g, ' ')).toContain('2 of 2 passed in an earlier version');
+    expect(el.querySelector('button.row')!.textContent).toContain('Earlier version');
   });
 
   it('says how to write a check when there is none', async () => {

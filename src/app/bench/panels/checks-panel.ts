@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
 import type { CheckResult, SolveResult } from '../../../../solver/result';
 import { measureDefinitions, measureUnits } from './measure-lines';
-import { PanelNotice, panelNotice } from './panel-notice';
+import { PanelNotice, panelNotice, STALE_TAG_STYLES } from './panel-notice';
 import { STATUS_STYLES } from './panel-styles';
 import { formatQuantity, formatSigned, type Unit } from './si-format';
 import { checkSubject, guessUnit } from './units';
@@ -14,7 +14,6 @@ interface CheckRow {
   value: string;
   limit: string;
   margin: string;
-  label: string;
 }
 
 /**
@@ -31,8 +30,9 @@ interface CheckRow {
       <nw-panel-notice [notice]="n" />
     } @else {
       <p class="summary" [class.all]="passed() === rows().length" role="status">
-        <span class="tag" [class.pass]="passed() === rows().length" [class.fail]="passed() < rows().length">
-          {{ passed() === rows().length ? '✓' : '✗' }} {{ passed() }} of {{ rows().length }} pass
+        <span class="tag" [class.pass]="!stale() && passed() === rows().length" [class.fail]="!stale() && passed() < rows().length" [class.stale]="stale()">
+          {{ passed() === rows().length ? '✓' : '✗' }} {{ passed() }} of {{ rows().length }} {{ stale() ? 'passed' : 'pass' }}
+          @if (stale()) { <span class="earlier">in an earlier version</span> }
         </span>
         @if (passed() < rows().length) { <span class="hint">{{ rows().length - passed() }} failing — choose one to go to its line.</span> }
       </p>
@@ -42,20 +42,23 @@ interface CheckRow {
       <ul class="list" aria-label="Checks">
         @for (row of rows(); track $index) {
           <li>
-            <button type="button" class="row" [class.failing]="!row.check.pass" (click)="lineSelected.emit(row.check.line)" [attr.aria-label]="row.label">
-              <span><span class="tag" [class.pass]="row.check.pass" [class.fail]="!row.check.pass">{{ row.check.pass ? '✓ pass' : '✗ fail' }}</span></span>
-              <span class="mono text">{{ row.check.text }}</span>
-              <span class="num r">{{ row.value }}</span>
-              <span class="num r">{{ row.limit }}</span>
-              <span class="num r margin" [class.neg]="row.check.margin < 0">{{ row.margin }}</span>
-              <span class="num r line">{{ row.check.line }}</span>
+            <!-- Named by its visible text (so voice control finds it), with the column names as hidden words between. -->
+            <button type="button" class="row" [class.failing]="!stale() && !row.check.pass" (click)="lineSelected.emit(row.check.line)">
+              @if (stale()) { <span class="visually-hidden">Earlier version: </span> }
+              <!-- &ngsp; keeps a space between the cells, so the words of the name stay apart. -->
+              <span><span class="tag" [class.pass]="!stale() && row.check.pass" [class.fail]="!stale() && !row.check.pass" [class.stale]="stale()">{{ row.check.pass ? '✓ pass' : '✗ fail' }}</span></span>&ngsp;<span
+                class="mono text">{{ row.check.text }}</span>&ngsp;<span class="visually-hidden">value</span>&ngsp;<span
+                class="num r">{{ row.value }}</span>&ngsp;<span class="visually-hidden">limit</span>&ngsp;<span
+                class="num r">{{ row.limit }}</span>&ngsp;<span class="visually-hidden">margin</span>&ngsp;<span
+                class="num r margin" [class.neg]="row.check.margin < 0">{{ row.margin }}</span>&ngsp;<span class="visually-hidden">line</span>&ngsp;<span
+                class="num r line">{{ row.check.line }}</span>
             </button>
           </li>
         }
       </ul>
     }
   `,
-  styles: [STATUS_STYLES, `
+  styles: [STATUS_STYLES, STALE_TAG_STYLES, `
     :host { display: block; }
     .summary { display: flex; align-items: center; gap: 10px; margin: 0 0 10px; }
     .summary .tag { font-size: 1rem; padding: 2px 10px; }
@@ -65,7 +68,7 @@ interface CheckRow {
       border-bottom: 1px solid var(--mat-sys-outline-variant); text-transform: uppercase; letter-spacing: 0.04em; }
     .r { text-align: right; }
     .list { list-style: none; margin: 0; padding: 0; }
-    .row { width: 100%; font: inherit; font-size: 0.875rem; text-align: left; color: var(--mat-sys-on-surface);
+    .row { position: relative; width: 100%; font: inherit; font-size: 0.875rem; text-align: left; color: var(--mat-sys-on-surface);
       background: transparent; border: 0; border-bottom: 1px solid var(--mat-sys-outline-variant); padding: 6px 8px; cursor: pointer; }
     .row:hover { background: var(--mat-sys-surface-container); }
     .row.failing { background: #FCF1EF; }
@@ -79,6 +82,8 @@ export class ChecksPanel {
   readonly result = input<SolveResult | undefined>();
   /** The netlist text, to learn the units of measures the checks refer to (optional). */
   readonly netlist = input<string>();
+  /** The result is from an earlier version of the netlist: no pass or fail is coloured. */
+  readonly stale = input(false);
   /** The line of the chosen check. */
   readonly lineSelected = output<number>();
 
@@ -98,10 +103,7 @@ export class ChecksPanel {
     const value = formatQuantity(check.value, unit);
     const limit = `${OPERATOR_SIGNS[op] ?? op} ${formatQuantity(check.limit, unit)}${tolerance ? ` ± ${tolerance}` : ''}`.trim();
     const margin = formatSigned(check.margin, unit);
-    return {
-      check, unit, value, limit, margin,
-      label: `${check.text}: ${check.pass ? 'passes' : 'fails'}; value ${value}, limit ${limit}, margin ${margin}; line ${check.line}`,
-    };
+    return { check, unit, value, limit, margin };
   }));
 
   readonly passed = computed(() => this.rows().filter((r) => r.check.pass).length);

@@ -33,8 +33,8 @@ interface MeasureRow {
         @for (row of rows(); track row.name) {
           <li>
             @if (row.line !== undefined) {
-              <button type="button" class="row" (click)="lineSelected.emit(row.line)"
-                      [attr.aria-label]="row.name + ' = ' + row.value + ', line ' + row.line">
+              <!-- Named by its visible text, so voice control finds it by what it shows. -->
+              <button type="button" class="row" (click)="lineSelected.emit(row.line)">
                 <ng-container *ngTemplateOutlet="body; context: { $implicit: row }" />
               </button>
             } @else {
@@ -44,9 +44,9 @@ interface MeasureRow {
         }
       </ul>
       <ng-template #body let-row>
-        <span class="name mono">{{ row.name }}</span>
-        <span class="value num">{{ row.value }}</span>
-        <span class="expr mono">{{ row.expr ? '= ' + row.expr : '' }}</span>
+        <!-- &ngsp; keeps a space between the cells, so the words of the name stay apart. -->
+        <span class="name mono">{{ row.name }}</span>&ngsp;<span class="visually-hidden">=</span>&ngsp;<span
+          class="value num">{{ row.value }}</span>&ngsp;<span class="expr mono">{{ row.expr ? '= ' + row.expr : '' }}</span>&ngsp;
         <span class="line num">{{ row.line !== undefined ? 'line ' + row.line : '' }}</span>
       </ng-template>
     }
@@ -54,7 +54,7 @@ interface MeasureRow {
   styles: [STATUS_STYLES, `
     :host { display: block; }
     .list { list-style: none; margin: 0; padding: 0; }
-    .row { display: grid; grid-template-columns: minmax(70px, max-content) 110px minmax(0, 1fr) 56px; gap: 12px; align-items: baseline;
+    .row { position: relative; display: grid; grid-template-columns: minmax(70px, max-content) 110px minmax(0, 1fr) 56px; gap: 12px; align-items: baseline;
       width: 100%; font: inherit; font-size: 0.875rem; text-align: left; color: var(--mat-sys-on-surface);
       background: transparent; border: 0; border-bottom: 1px solid var(--mat-sys-outline-variant); padding: 6px 8px; }
     button.row { cursor: pointer; }

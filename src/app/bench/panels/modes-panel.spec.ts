@@ -67,6 +67,21 @@ describe('ModesPanel', () => {
     expect(el.querySelector('.marker-corner .marker-label')?.textContent).toMatch(/^−3 dB at [0-9.]+ [kMG]?Hz$/);
   });
 
+  it('exports the CMRR plot like every plot: SVG, PNG and CSV of its curve', async () => {
+    const result = solveNetlist(RESISTOR_TAIL_PAIR);
+    const { fixture, el } = await render(result);
+    const labels = [...el.querySelectorAll('nw-export-bar button')].map((b) => b.getAttribute('aria-label'));
+    expect(labels).toEqual(['Export the plot as SVG', 'Export the plot as PNG', 'CSV: export the curves']);
+    const rows = fixture.componentInstance.csvText().split('\r\n');
+    expect(rows[0]).toBe('freq_hz,cmrr_mag_db,cmrr_phase_deg');
+    expect(rows.length - 2).toBe(result.ac!.freq_hz.length);
+    expect(Number(rows[21].split(',')[1])).toBe(result.ac!.curves['cmrr'].db[20]);
+    const svg = fixture.componentInstance.plot()!.svgText();
+    expect(svg).toContain('>CMRR (dB)</text>');
+    expect(svg).not.toMatch(/_ngcontent|ng-reflect|style="/);
+    expect(fixture.componentInstance.stem()).toBe('resistor-tail-pair-cmrr');
+  });
+
   it('states a single-ended output and the ports frequency, and asks for a sweep to plot', async () => {
     const result = solveNetlist(MOS_PAIR_SINGLE);
     const { el } = await render(result);

@@ -1,8 +1,10 @@
-import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input, viewChild } from '@angular/core';
 import type { ComplexFigure, PortsResult, SolveResult } from '../../../../solver/result';
 import { BodePlot } from './plot/bode-plot';
 import { curveMarkers } from './plot/curve-markers';
+import { ExportBar } from './plot/export-bar';
 import { curveStyle } from './plot/palette';
+import { curvesCsv, fileStem } from './plot/plot-export';
 import type { PlotSeries } from './plot/plot-geometry';
 import { PanelNotice, panelNotice } from './panel-notice';
 import { STATUS_STYLES } from './panel-styles';
@@ -43,11 +45,11 @@ interface Figure {
 /**
  * *Modes*: the differential and common-mode figures of the `ports` analysis — adm, acm, cmrr
  * and cmrr_db — as large numbers with their definitions written out, the frequency they are
- * taken at, and CMRR over frequency when the netlist has an ac sweep.
+ * taken at, and CMRR over frequency when the netlist has an ac sweep (exported like every plot).
  */
 @Component({
   selector: 'nw-modes-panel',
-  imports: [PanelNotice, BodePlot],
+  imports: [PanelNotice, BodePlot, ExportBar],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     @if (notice(); as n) {
@@ -60,7 +62,7 @@ interface Figure {
       <div class="figures">
         @for (f of figures(); track f.key) {
           <section class="figure" [attr.aria-label]="f.title">
-            <h3>{{ f.title }}</h3>
+            <h2>{{ f.title }}</h2>
             <p class="big num">{{ f.db }}</p>
             <p class="sub num">
               <span>{{ f.magnitude }}</span>
@@ -83,9 +85,12 @@ interface Figure {
         }
       </dl>
       @if (cmrrSeries(); as series) {
-        <h3 class="plot-title">CMRR over frequency</h3>
+        <div class="plot-head">
+          <h2 class="plot-title">CMRR over frequency</h2>
+          <nw-export-bar [plot]="plot()" [stem]="stem()" [csvAll]="csvFn" [allCount]="1" />
+        </div>
         <nw-bode-plot [freqHz]="freqHz()" [series]="series" [showPhase]="false" [markers]="cmrrMarkers()"
-                      magnitudeLabel="CMRR (dB)" ariaLabel="CMRR over frequency" [height]="210" [caption]="(result()?.title ?? '') + ' — CMRR'" />
+                      magnitudeLabel="CMRR (dB)" ariaLabel="CMRR over frequency" [caption]="(result()?.title ?? '') + ' — CMRR'" />
       } @else {
         <p class="note">Add <code>analyze ac from 10 Hz to 1 GHz per decade 20</code> to see how CMRR falls with frequency.</p>
       }
@@ -97,7 +102,7 @@ interface Figure {
     .figures { display: grid; grid-template-columns: repeat(auto-fit, minmax(150px, 1fr)); gap: 8px; margin-bottom: 8px; }
     .figure { padding: 6px 10px 8px; border-radius: 8px; background: var(--mat-sys-surface-container-lowest);
       border: 1px solid var(--mat-sys-outline-variant); }
-    .figure h3 { margin: 0; font-size: 0.875rem; font-weight: 700; color: var(--mat-sys-on-surface-variant); }
+    .figure h2 { margin: 0; font-size: 0.875rem; font-weight: 700; color: var(--mat-sys-on-surface-variant); }
     .figure p { margin: 0; }
     .big { font-size: 1.5rem; font-weight: 600; line-height: 1.2; color: var(--mat-sys-on-surface); }
     .sub { display: flex; flex-wrap: wrap; gap: 2px 10px; font-size: 0.875rem; color: var(--mat-sys-on-surface); }
@@ -105,7 +110,8 @@ interface Figure {
     .defs { display: grid; grid-template-columns: max-content 1fr; gap: 2px 12px; margin: 0 0 8px; font-size: 0.8125rem; }
     .defs dt { font-weight: 700; }
     .defs dd { margin: 0; }
-    .plot-title { margin: 0 0 4px; font-size: 0.9375rem; font-weight: 700; }
+    .plot-head { display: flex; flex-wrap: wrap; align-items: center; gap: 6px; margin: 0 0 2px; }
+    .plot-title { margin: 0; font-size: 0.9375rem; font-weight: 700; }
     .note { font-size: 0.875rem; color: var(--mat-sys-on-surface-variant); }
     code { font-family: ui-monospace, "DejaVu Sans Mono", monospace; font-size: 0.8125rem; background: var(--mat-sys-surface-container-high); padding: 1px 4px; border-radius: 3px; }
   `],
@@ -146,6 +152,18 @@ export class ModesPanel {
     if (!curve || this.freqHz().length < 2) return undefined;
     return [{ key: 'cmrr', label: 'CMRR', db: curve.db, phase_deg: curve.phase_deg, style: { color: curveStyle(2).color, dash: '' } }];
   });
+
+  readonly plot = viewChild(BodePlot);
+  /** File names of the exports: `<title>-cmrr.svg` … */
+  readonly stem = computed(() => `${fileStem(this.result()?.title)}-cmrr`);
+
+  /** CSV of the CMRR curve over the whole sweep (magnitude in dB and phase), full precision. */
+  csvText(): string {
+    const curve = this.result()?.ac?.curves['cmrr'];
+    return curve ? curvesCsv(this.freqHz(), [{ key: 'cmrr', db: curve.db, phase_deg: curve.phase_deg }]) : '';
+  }
+
+  protected readonly csvFn = () => this.csvText();
 
   /** The CMRR corner: where the common-mode rejection has fallen 3 dB from its low-frequency value. */
   readonly cmrrMarkers = computed(() => {

@@ -10,13 +10,15 @@ export interface Notice {
 }
 
 /**
- * The notice a panel shows instead of its content: no result yet, a netlist with errors, or
- * (from `specific`) the panel's own missing ingredient; undefined when there is content to show.
+ * The notice a panel shows instead of its content: no result yet, a circuit that did not solve,
+ * or (from `specific`) the panel's own missing ingredient; undefined when there is content to
+ * show. Errors confined to requests (a misspelt measure) leave the circuit solved: the panel
+ * shows what it has, and the editor marks the request's line.
  */
 export function panelNotice(result: SolveResult | undefined, specific: (r: SolveResult) => Notice | undefined): Notice | undefined {
   if (!result) return { title: 'Nothing solved yet', text: 'Write or open a netlist; results appear here as soon as it solves.' };
   const errors = result.errors?.length ?? 0;
-  if (errors > 0) {
+  if (errors > 0 && !result.op) {
     const first = result.errors[0];
     return {
       title: errors === 1 ? 'The netlist has an error' : `The netlist has ${errors} errors`,
@@ -25,6 +27,15 @@ export function panelNotice(result: SolveResult | undefined, specific: (r: Solve
   }
   return specific(result);
 }
+
+/**
+ * A tag on a figure from an earlier version of the netlist: neither the green of a pass nor the
+ * red of a fail, dashed so it reads as provisional even without colour.
+ */
+export const STALE_TAG_STYLES = `
+  .tag.stale { color: var(--mat-sys-on-surface-variant); background: transparent; border: 1px dashed var(--mat-sys-outline); }
+  .earlier { font-weight: 400; font-style: italic; }
+`;
 
 /** A quiet box that says why a panel is empty. */
 @Component({

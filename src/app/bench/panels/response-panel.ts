@@ -3,8 +3,9 @@ import { MatButtonModule } from '@angular/material/button';
 import type { SolveResult } from '../../../../solver/result';
 import { BodePlot } from './plot/bode-plot';
 import { curveMarkers } from './plot/curve-markers';
-import { CURVE_STYLES, curveStyle, type CurveStyle } from './plot/palette';
-import { curvesCsv, downloadBlob, fileStem, svgToPng } from './plot/plot-export';
+import { ExportBar } from './plot/export-bar';
+import { curveStyle, type CurveStyle } from './plot/palette';
+import { curvesCsv, fileStem } from './plot/plot-export';
 import type { PlotSeries } from './plot/plot-geometry';
 import { PanelNotice, panelNotice } from './panel-notice';
 
@@ -27,11 +28,11 @@ interface CurveEntry {
 /**
  * *Response*: the Bode plot of the ac sweep — the ports curves (adm, acm, cmrr) and every node's
  * ac(n) — with a legend to show or hide each curve, the −3 dB and unity points of a chosen curve
- * marked, a reading cursor, zoom and pan, and export as SVG, PNG or CSV.
+ * marked, a reading cursor, zoom and pan, and export as SVG, PNG or CSV (of the shown curves, or of all of them).
  */
 @Component({
   selector: 'nw-response-panel',
-  imports: [BodePlot, MatButtonModule, PanelNotice],
+  imports: [BodePlot, ExportBar, MatButtonModule, PanelNotice],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     @if (notice(); as n) {
@@ -43,13 +44,8 @@ interface CurveEntry {
             @for (e of shown(); track e.key) { <option [value]="e.key" [selected]="e.key === selectedKey()">{{ e.key }}</option> }
           </select>
         </label>
-        <span class="status" aria-live="polite">{{ status() }}</span>
         <button mat-stroked-button type="button" (click)="plot()?.resetZoom()" [disabled]="!plot()?.zoomed()" aria-label="Reset zoom">Reset zoom</button>
-        <span class="export" role="group" aria-label="Export the plot">
-          <button mat-button type="button" (click)="exportSvg()" aria-label="Export the plot as SVG">SVG</button>
-          <button mat-button type="button" (click)="exportPng()" aria-label="Export the plot as PNG">PNG</button>
-          <button mat-button type="button" (click)="exportCsv()" aria-label="Export the plotted curves as CSV">CSV</button>
-        </span>
+        <nw-export-bar [plot]="plot()" [stem]="stem()" [csvShown]="csvShownFn" [csvAll]="csvAllFn" [allCount]="entries().length" />
       </div>
       <div class="legend" role="group" aria-label="Curves shown">
         @for (e of available(); track e.key) {
@@ -65,7 +61,7 @@ interface CurveEntry {
         }
       </div>
       @if (shown().length > 0) {
-        <nw-bode-plot [freqHz]="freqHz()" [series]="shownSeries()" [markers]="markers()" [height]="330"
+        <nw-bode-plot [freqHz]="freqHz()" [series]="shownSeries()" [markers]="markers()"
                       [ariaLabel]="'Bode plot of ' + shownKeys()" [caption]="result()?.title" />
       } @else {
         <p class="empty">Choose a curve above to plot it.</p>
@@ -79,7 +75,6 @@ interface CurveEntry {
     .marks { font-size: 0.875rem; color: var(--mat-sys-on-surface-variant); display: inline-flex; align-items: center; gap: 6px; }
     select { font: inherit; color: var(--mat-sys-on-surface); background: var(--mat-sys-surface-container-lowest);
       border: 1px solid var(--mat-sys-outline); border-radius: 4px; padding: 3px 6px; }
-    .export { display: inline-flex; gap: 2px; }
     .legend { display: flex; flex-wrap: wrap; gap: 5px; margin: 0 0 6px; }
     .chip { display: inline-flex; align-items: center; gap: 3px; font: inherit; font-size: 0.8125rem; cursor: pointer;
       padding: 1px 9px 1px 6px; border-radius: 14px; border: 1px solid var(--mat-sys-outline-variant);
@@ -87,16 +82,13 @@ interface CurveEntry {
     .chip.on { background: var(--mat-sys-surface-container-high); color: var(--mat-sys-on-surface); border-color: var(--mat-sys-outline); font-weight: 600; }
     .chip:not(.on) svg { opacity: 0.45; }
     .legend { align-items: center; }
-    .silent, .empty, .status { font-size: 0.8125rem; color: var(--mat-sys-on-surface-variant); margin: 0; }
-    .status { flex: 1; text-align: right; }
+    .silent, .empty { font-size: 0.8125rem; color: var(--mat-sys-on-surface-variant); margin: 0; }
   `,
 })
 export class ResponsePanel {
   readonly result = input<SolveResult | undefined>();
 
   readonly plot = viewChild(BodePlot);
-  readonly status = signal('');
-  private statusTimer: ReturnType<typeof setTimeout> | undefined;
   /** The user's own show/hide choices, kept across re-solves while the curve names persist. */
   private readonly choices = signal<ReadonlyMap<string, boolean>>(new Map());
   private readonly chosenMarkKey = signal<string | undefined>(undefined);
@@ -110,7 +102,7 @@ export class ResponsePanel {
   readonly freqHz = computed(() => this.result()?.ac?.freq_hz ?? []);
 
   /** Every curve of the sweep in display order: the ports figures first, then the nodes. */
-  private readonly entries = computed<Array<Omit<CurveEntry, 'series'> & { series: Omit<PlotSeries, 'style'> }>>(() => {
+  protected readonly entries = computed<Array<Omit<CurveEntry, 'series'> & { series: Omit<PlotSeries, 'style'> }>>(() => {
     const curves = this.result()?.ac?.curves ?? {};
     const keys = [...PORTS_CURVES.filter((k) => k in curves), ...Object.keys(curves).filter((k) => !PORTS_CURVES.includes(k))];
     return keys.map((key) => ({
@@ -143,7 +135,7 @@ export class ResponsePanel {
     const used = new Set<string>();
     return this.available().filter((e) => this.isVisible(e.key)).map((e) => {
       let style = e.series.style;
-      for (let k = 0; used.has(style.color + style.dash) && k < CURVE_STYLES.length; k++) style = CURVE_STYLES[k];
+      for (let k = 0; used.has(style.color + style.dash) && k < 49; k++) style = curveStyle(k);
       used.add(style.color + style.dash);
       return style === e.series.style ? e : { ...e, series: { ...e.series, style } };
     });
@@ -184,37 +176,19 @@ export class ResponsePanel {
     this.chosenMarkKey.set(key);
   }
 
+  /** File names of the exports: `<title>-response.svg` … */
+  readonly stem = computed(() => `${fileStem(this.result()?.title)}-response`);
+
   /** CSV of the shown curves over the whole sweep: exactly the plotted numbers. */
   csvText(): string {
     return curvesCsv(this.freqHz(), this.shown().map((e) => ({ key: e.key, db: e.series.db, phase_deg: e.series.phase_deg })));
   }
 
-  exportSvg(): void {
-    const plot = this.plot();
-    if (!plot) return;
-    this.save(new Blob([plot.svgText()], { type: 'image/svg+xml' }), 'svg');
+  /** CSV of every curve of the sweep, shown, hidden or silent, in the legend's order. */
+  csvAllText(): string {
+    return curvesCsv(this.freqHz(), this.entries().map((e) => ({ key: e.key, db: e.series.db, phase_deg: e.series.phase_deg })));
   }
 
-  async exportPng(): Promise<void> {
-    const plot = this.plot();
-    if (!plot) return;
-    const { width, height } = plot.size();
-    try {
-      this.save(await svgToPng(plot.svgText(), width, height, 2), 'png');
-    } catch (err) {
-      this.status.set(err instanceof Error ? err.message : 'The PNG could not be made.');
-    }
-  }
-
-  exportCsv(): void {
-    this.save(new Blob([this.csvText()], { type: 'text/csv' }), 'csv');
-  }
-
-  private save(blob: Blob, ext: string): void {
-    const name = `${fileStem(this.result()?.title)}-response.${ext}`;
-    downloadBlob(blob, name);
-    this.status.set(`Saved ${name}.`);
-    clearTimeout(this.statusTimer);
-    this.statusTimer = setTimeout(() => this.status.set(''), 5000);
-  }
+  protected readonly csvShownFn = () => this.csvText();
+  protected readonly csvAllFn = () => this.csvAllText();
 }

@@ -16,7 +16,14 @@ export type BjtRow = BjtOp & { name: string };
 export type MosRow = MosOp & { name: string };
 export type DiodeRow = DiodeOp & { name: string };
 export interface NodeRow { name: string; v: number }
-export interface BranchRow { name: string; v: number; i: number; p: number }
+export interface BranchRow {
+  name: string;
+  /** The part's kind as the netlist writes it (`vsrc`, `isrc`, `res` …), when known. */
+  kind?: string;
+  v: number;
+  i: number;
+  p: number;
+}
 
 /** One device that needs attention, for the summary. */
 export interface Problem { name: string; text: string }
@@ -94,6 +101,33 @@ export function branchRows(entries: Record<string, { v: number; i: number }>): B
   return Object.entries(entries).map(([name, b]) => ({ name, v: b.v, i: b.i, p: b.v * b.i }));
 }
 
+/** Kinds that are sources, wherever the op report files them. */
+const SOURCE_KINDS = new Set(['vsrc', 'isrc', 'vcvs', 'vccs']);
+
+/**
+ * Sources and parts as the bias panel groups them: every source together — voltage, current and
+ * controlled — and the passive parts apart, each group in netlist order. The op report files
+ * current sources and transconductors with the parts (their current is what is known about
+ * them); `kinds` (part name → kind, in the order the netlist writes the parts) tells them apart.
+ * Without kinds the report's own grouping stands.
+ */
+export function branchGroups(op: OpResult, kinds: ReadonlyMap<string, string>): { sources: BranchRow[]; parts: BranchRow[] } {
+  const withKind = (row: BranchRow): BranchRow => (kinds.has(row.name) ? { ...row, kind: kinds.get(row.name) } : row);
+  const sources = branchRows(op.sources).map(withKind);
+  const parts: BranchRow[] = [];
+  for (const row of branchRows(op.parts).map(withKind)) (row.kind && SOURCE_KINDS.has(row.kind) ? sources : parts).push(row);
+  return { sources: inNetlistOrder(sources, kinds), parts };
+}
+
+/** Rows by their part's place in the netlist; rows the netlist does not name (inside blocks) keep their order, after. */
+function inNetlistOrder(rows: BranchRow[], kinds: ReadonlyMap<string, string>): BranchRow[] {
+  const place = new Map([...kinds.keys()].map((name, k) => [name, k]));
+  return rows
+    .map((row, index) => ({ row, index, at: place.get(row.name) ?? Number.MAX_SAFE_INTEGER }))
+    .sort((a, b) => a.at - b.at || a.index - b.index)
+    .map((x) => x.row);
+}
+
 const name = <R extends { name: string }>(): OpColumn<R> => ({ id: 'name', header: 'Name', title: 'name', text: (r) => r.name, sortValue: (r) => r.name });
 const num = <R>(id: string, header: string, title: string, unit: string, get: (r: R) => number, flag?: (r: R) => CellFlag | undefined): OpColumn<R> => ({
   id, header, title, numeric: true, text: (r) => formatSi(get(r), unit), sortValue: (r) => get(r), flag,
@@ -143,6 +177,7 @@ export const NODE_COLUMNS: readonly OpColumn<NodeRow>[] = [name(), num('v', 'Vol
 export function branchColumns(current: string): readonly OpColumn<BranchRow>[] {
   return [
     name(),
+    { id: 'kind', header: 'Kind', title: 'kind', text: (r) => r.kind ?? '', sortValue: (r) => r.kind ?? '' },
     num('v', 'Voltage', 'voltage across', 'V', (r) => r.v),
     num('i', `Current ${current}`, `current ${current}`, 'A', (r) => r.i),
     {

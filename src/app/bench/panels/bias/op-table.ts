@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, input, linkedSignal, signal } from '@angular/core';
 import { MatSortModule, type Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { STATUS_STYLES } from '../panel-styles';
@@ -26,6 +26,13 @@ export interface OpColumn<Row> {
   numeric?: boolean;
 }
 
+/** Rows first rendered in one frame: a long table grows by this many a frame, so no frame is long. */
+export const ROWS_PER_FRAME = 40;
+
+const nextFrame: (run: () => void) => () => void = typeof requestAnimationFrame === 'function'
+  ? (run) => { const id = requestAnimationFrame(run); return () => cancelAnimationFrame(id); }
+  : (run) => { const id = setTimeout(run, 16); return () => clearTimeout(id); };
+
 const collator = new Intl.Collator('en', { numeric: true, sensitivity: 'base' });
 
 /** Rows sorted by `sort` (stable; unsorted when no direction). */
@@ -44,7 +51,10 @@ export function sortRows<Row>(rows: readonly Row[], columns: readonly OpColumn<R
 
 /**
  * One sortable table of the operating point (devices, nodes, sources or parts), compact enough
- * for a 700 px panel; the page-wide filter is applied by the caller.
+ * for a 700 px panel; the page-wide filter is applied by the caller. Rows are tracked by name, so
+ * a new result for the same circuit (every keystroke) updates cells in place instead of
+ * rebuilding every row; a table of new rows (another netlist, a filter) is built ROWS_PER_FRAME
+ * rows a frame.
  */
 @Component({
   selector: 'nw-op-table',
@@ -52,7 +62,7 @@ export function sortRows<Row>(rows: readonly Row[], columns: readonly OpColumn<R
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <div class="scroll">
-      <table mat-table [dataSource]="sorted()" matSort (matSortChange)="sort.set($event)" [attr.aria-label]="label()">
+      <table mat-table [dataSource]="built()" [trackBy]="byName" matSort (matSortChange)="sort.set($event)" [attr.aria-label]="label()">
         @for (col of columns(); track col.id) {
           <ng-container [matColumnDef]="col.id">
             <th mat-header-cell *matHeaderCellDef mat-sort-header [class.numeric]="col.numeric" [attr.title]="col.title"
@@ -88,14 +98,29 @@ export function sortRows<Row>(rows: readonly Row[], columns: readonly OpColumn<R
     .flag-word { display: block; font-size: 0.6875rem; color: #7A4A00; text-align: right; line-height: 1.1; }
   `],
 })
-export class OpTable<Row> {
+export class OpTable<Row extends { name: string }> {
   readonly label = input.required<string>();
   readonly columns = input.required<readonly OpColumn<Row>[]>();
   readonly rows = input.required<readonly Row[]>();
 
   readonly sort = signal<Sort | undefined>(undefined);
+  protected readonly byName = (_index: number, row: Row): string => row.name;
   readonly columnIds = computed(() => this.columns().map((c) => c.id));
   readonly sorted = computed(() => sortRows(this.rows(), this.columns(), this.sort()));
+  /** How many rows are built so far; starts again at one frame's worth when the row count changes. */
+  private readonly limit = linkedSignal({ source: () => this.rows().length, computation: () => ROWS_PER_FRAME });
+  /** The rows in the table now (all of them, once it has grown). */
+  readonly built = computed(() => {
+    const rows = this.sorted();
+    return rows.length > this.limit() ? rows.slice(0, this.limit()) : rows;
+  });
+
+  constructor() {
+    effect((onCleanup) => {
+      const limit = this.limit();
+      if (limit < this.sorted().length) onCleanup(nextFrame(() => this.limit.set(limit + ROWS_PER_FRAME)));
+    });
+  }
 
   isFlagged(row: Row): boolean {
     return this.columns().some((c) => c.flag?.(row) !== undefined);

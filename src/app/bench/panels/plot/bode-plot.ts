@@ -1,9 +1,10 @@
 import {
-  afterRenderEffect, ChangeDetectionStrategy, Component, computed, DestroyRef, ElementRef, inject, input, signal, untracked, viewChild,
+  afterRenderEffect, ChangeDetectionStrategy, Component, computed, ElementRef, inject, input, signal, untracked, viewChild,
 } from '@angular/core';
 import { formatTick } from '../si-format';
 import { drawCursor, drawPlot, drawZoomBox, readoutText } from './bode-draw';
 import { exportSize, serializeSvg } from './plot-export';
+import { PlotSize } from './plot-fit';
 import {
   clampDomain, fullDomain, layoutPlot, nearestIndex, panDomain, zoomDomain, type Domain, type PlotGeometry, type PlotMarker, type PlotSeries,
 } from './plot-geometry';
@@ -19,6 +20,9 @@ interface Drag {
 }
 
 let helpCounter = 0;
+
+/** Past this a taller plot shows nothing more: the eye reads a Bode plot at about this size. */
+const MAX_HEIGHT = 900;
 
 /**
  * A Bode plot: magnitude in dB above, unwrapped phase in degrees below (optional), on one
@@ -86,8 +90,12 @@ export class BodePlot {
   readonly ariaLabel = input('Bode plot');
   /** Caption of the exported file, e.g. the netlist's title. */
   readonly caption = input<string>();
-  /** Height in pixels; by default 360 with the phase panel, 220 without. */
+  /** A fixed height in pixels; by default the plot takes the height its panel leaves free. */
   readonly height = input<number>();
+  /** The least height when filling the panel: 300 with the phase panel, 220 without. */
+  readonly minHeight = input<number>();
+  /** Ids of marker labels left off for lack of room (their text stays in the marker's tooltip). */
+  droppedLabels: readonly string[] = [];
 
   readonly helpId = `nw-plot-help-${++helpCounter}`;
   /** Sample under the cursor. */
@@ -101,11 +109,16 @@ export class BodePlot {
 
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
   private readonly svgRef = viewChild.required<ElementRef<SVGSVGElement>>('svg');
-  private readonly width = signal(640);
+  /** The height that fills the panel, once measured. */
+  private readonly least = computed(() => this.minHeight() ?? (this.showPhase() ? 300 : 220));
+  /** Width from the host, height from the panel (or fixed). */
+  private readonly box = new PlotSize(this.host.nativeElement, {
+    fixed: () => this.height(), least: () => this.least(), initial: () => (this.showPhase() ? 360 : 220), max: MAX_HEIGHT,
+  });
 
   readonly geometry = computed<PlotGeometry>(() => layoutPlot({
-    width: this.width(),
-    height: this.height() ?? (this.showPhase() ? 360 : 220),
+    width: this.box.width(),
+    height: this.box.height(),
     freqHz: this.freqHz(),
     series: this.series(),
     showPhase: this.showPhase(),
@@ -124,21 +137,13 @@ export class BodePlot {
   });
 
   constructor() {
-    const observer = typeof ResizeObserver === 'function'
-      ? new ResizeObserver((entries) => {
-        const w = Math.floor(entries[0]?.contentRect.width ?? 0);
-        if (w > 0 && w !== this.width()) this.width.set(w);
-      })
-      : undefined;
-    observer?.observe(this.host.nativeElement);
-    inject(DestroyRef).onDestroy(() => observer?.disconnect());
-
     afterRenderEffect(() => {
       const geo = this.geometry();
       const svg = this.svgRef().nativeElement;
-      drawPlot(svg, geo, this.freqHz(), this.series(), this.markers(), {
+      const dropped = drawPlot(svg, geo, this.freqHz(), this.series(), this.markers(), {
         magnitude: this.magnitudeLabel(), phase: 'Phase (°)', frequency: 'Frequency (Hz)', caption: this.caption(),
       });
+      this.droppedLabels = dropped;
       drawCursor(svg, geo, this.freqHz(), this.series(), untracked(this.cursorIndex));
     });
     afterRenderEffect(() => {

@@ -23,9 +23,19 @@ export const CURVE_STYLES: readonly CurveStyle[] = [
   { color: '#56B4E9', dash: '1 2' },
 ];
 
-/** The style of the n-th curve (cycling). */
+/**
+ * The style of the n-th curve. The first seven are the pairs above; past them each colour comes
+ * back with another palette's dash (shifted by three per round, and 3 is prime to 7), so the
+ * first 49 curves all differ in colour or dash or both.
+ */
 export function curveStyle(index: number): CurveStyle {
-  return CURVE_STYLES[((index % CURVE_STYLES.length) + CURVE_STYLES.length) % CURVE_STYLES.length];
+  const n = CURVE_STYLES.length;
+  const k = Math.max(0, Math.floor(index));
+  if (k < n) return CURVE_STYLES[k];
+  const round = Math.floor(k / n) % n;
+  const color = CURVE_STYLES[k % n].color;
+  const dash = CURVE_STYLES[(k + 3 * round) % n].dash;
+  return { color, dash };
 }
 
 /** The plot's own neutral colours, matching the app theme's paper and ink. */
@@ -38,6 +48,8 @@ export const PLOT_COLORS = {
   cursor: '#1F5F7A',
   marker: '#A8481F',
   zoomBox: 'rgba(31, 95, 122, 0.12)',
+  /** A marked span of the x axis (the linear input range): the marker's colour, faint. */
+  band: 'rgba(168, 72, 31, 0.09)',
 } as const;
 
 export const PLOT_FONT = '"Source Sans 3", "Source Sans Pro", Arial, sans-serif';

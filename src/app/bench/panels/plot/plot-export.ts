@@ -1,7 +1,9 @@
 /**
- * Exporting a plot: the SVG itself (styles inlined so it stands alone), a PNG rendered from that
- * SVG on a 2D canvas at twice the size (no GPU needed), and its curves as CSV.
+ * Exporting a plot: the SVG itself (its own small stylesheet travels inside it; nothing of the
+ * page's framework comes along), a PNG rendered from that SVG on a 2D canvas at twice the size
+ * (no GPU needed), and its curves as CSV.
  */
+import { PLOT_CLASS } from './plot-style';
 
 /** One exported curve: the numbers exactly as plotted. */
 export interface CsvCurve {
@@ -10,31 +12,30 @@ export interface CsvCurve {
   phase_deg?: readonly number[];
 }
 
-/** Presentation properties copied from the live element so the file looks as on screen. */
-const STYLE_PROPERTIES = [
-  'fill', 'fill-opacity', 'stroke', 'stroke-width', 'stroke-dasharray', 'stroke-opacity', 'opacity',
-  'font-family', 'font-size', 'font-weight', 'text-anchor', 'dominant-baseline', 'paint-order', 'stroke-linejoin',
-] as const;
-
 /**
  * CSV of the curves: `freq_hz`, then `<key>_mag_db` and `<key>_phase_deg` per curve.
  * Numbers are written in full (shortest round-trip form), so they equal the plotted ones.
  */
 export function curvesCsv(freqHz: readonly number[], curves: readonly CsvCurve[]): string {
-  const header = ['freq_hz'];
+  const columns: CsvColumn[] = [{ name: 'freq_hz', values: freqHz }];
   for (const c of curves) {
-    header.push(`${c.key}_mag_db`);
-    if (c.phase_deg) header.push(`${c.key}_phase_deg`);
+    columns.push({ name: `${c.key}_mag_db`, values: c.db });
+    if (c.phase_deg) columns.push({ name: `${c.key}_phase_deg`, values: c.phase_deg });
   }
-  const rows = [header.map(csvField).join(',')];
-  for (let k = 0; k < freqHz.length; k++) {
-    const row = [String(freqHz[k])];
-    for (const c of curves) {
-      row.push(String(c.db[k]));
-      if (c.phase_deg) row.push(String(c.phase_deg[k]));
-    }
-    rows.push(row.join(','));
-  }
+  return columnsCsv(columns);
+}
+
+/** A named column of numbers. */
+export interface CsvColumn {
+  name: string;
+  values: readonly number[];
+}
+
+/** CSV of columns, one row per sample of the first column; RFC 4180 quoting, CRLF rows. */
+export function columnsCsv(columns: readonly CsvColumn[]): string {
+  const rows = [columns.map((c) => csvField(c.name)).join(',')];
+  const n = columns[0]?.values.length ?? 0;
+  for (let k = 0; k < n; k++) rows.push(columns.map((c) => (k < c.values.length ? String(c.values[k]) : '')).join(','));
   return rows.join('\r\n') + '\r\n';
 }
 
@@ -43,23 +44,30 @@ function csvField(text: string): string {
   return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
 }
 
+/** Attributes that belong to the page, not the picture: Angular's, ARIA's, focus. */
+const PAGE_ATTRIBUTE = /^(_ng|ng-|aria-|tabindex$|role$|data-export)/;
+
 /**
- * The SVG as a standalone document: computed presentation styles inlined, elements marked
- * `data-export="skip"` (cursor, zoom box) left out, explicit size and namespace.
+ * The SVG as a standalone document: elements marked `data-export="skip"` (cursor, zoom box) left
+ * out, attributes of the page (Angular's `_ngcontent-*`/`ng-reflect-*`, ARIA, focus) stripped,
+ * the embedded stylesheet kept as the one source of shared looks, explicit size and namespace.
  */
 export function serializeSvg(svg: SVGSVGElement): string {
   const clone = svg.cloneNode(true) as SVGSVGElement;
-  inlineStyles(svg, clone);
   clone.querySelectorAll('[data-export="skip"]').forEach((el) => el.remove());
+  for (const el of [clone, ...clone.querySelectorAll('*')]) {
+    for (const name of el.getAttributeNames()) if (PAGE_ATTRIBUTE.test(name)) el.removeAttribute(name);
+  }
   const { width, height } = exportSize(svg);
-  clone.setAttribute('xmlns', 'http://www.w3.org/2000/svg');
+  // No xmlns attribute by hand: the serializer writes the SVG namespace of the element itself,
+  // and one set as a plain attribute as well comes out twice (a file no XML reader opens).
+  clone.removeAttribute('xmlns');
   clone.setAttribute('width', String(width));
   clone.setAttribute('height', String(height));
   clone.setAttribute('viewBox', `0 0 ${width} ${height}`);
   clone.querySelector('rect.paper')?.setAttribute('height', String(height));
-  clone.removeAttribute('data-export-extra');
-  clone.removeAttribute('tabindex');
-  clone.removeAttribute('class');
+  // Only the stylesheet's scoping class stays on the root (the page's own classes go).
+  clone.setAttribute('class', PLOT_CLASS);
   return '<?xml version="1.0" encoding="UTF-8"?>\n' + new XMLSerializer().serializeToString(clone);
 }
 
@@ -74,23 +82,6 @@ export function svgSize(svg: SVGSVGElement): { width: number; height: number } {
 export function exportSize(svg: SVGSVGElement): { width: number; height: number } {
   const { width, height } = svgSize(svg);
   return { width, height: height + (Number(svg.getAttribute('data-export-extra')) || 0) };
-}
-
-function inlineStyles(source: Element, target: Element): void {
-  const view = source.ownerDocument.defaultView;
-  if (view && typeof view.getComputedStyle === 'function') {
-    const computed = view.getComputedStyle(source);
-    const declarations: string[] = [];
-    for (const prop of STYLE_PROPERTIES) {
-      const value = computed.getPropertyValue(prop);
-      if (value && !target.hasAttribute(prop)) declarations.push(`${prop}: ${value}`);
-    }
-    const own = target.getAttribute('style');
-    if (declarations.length > 0) target.setAttribute('style', [own, ...declarations].filter(Boolean).join('; '));
-  }
-  const sourceChildren = source.children;
-  const targetChildren = target.children;
-  for (let k = 0; k < sourceChildren.length && k < targetChildren.length; k++) inlineStyles(sourceChildren[k], targetChildren[k]);
 }
 
 /** Renders SVG text to a PNG at `scale`× on a 2D canvas, over the paper colour. */

@@ -1,6 +1,6 @@
 import { linearTicks, logTicks, phaseTicks } from './log-ticks';
 import { clampDomain, fullDomain, layoutPlot, nearestIndex, panDomain, visibleRange, zoomDomain } from './plot-geometry';
-import { curveStyle, CURVE_STYLES } from './palette';
+import { curveStyle } from './palette';
 import { curvesCsv, fileStem } from './plot-export';
 
 // A log sweep of 20 points per decade from 10 Hz to 1 GHz, as `analyze ac … per decade 20` makes.
@@ -89,14 +89,7 @@ describe('plot geometry', () => {
   });
 });
 
-describe('palette and export', () => {
-  it('gives every curve of the palette its own dash pattern so colour is never the only cue', () => {
-    expect(new Set(CURVE_STYLES.map((s) => s.dash)).size).toBe(CURVE_STYLES.length);
-    // Okabe & Ito (2008) colours, first three: blue, vermillion, bluish green.
-    expect(CURVE_STYLES.slice(0, 3).map((s) => s.color)).toEqual(['#0072B2', '#D55E00', '#009E73']);
-    expect(curveStyle(CURVE_STYLES.length)).toBe(CURVE_STYLES[0]);
-  });
-
+describe('CSV export', () => {
   it('writes CSV in full precision with quoted names, CRLF rows (RFC 4180)', () => {
     const csv = curvesCsv([10, 100], [{ key: 'ac(a, b)', db: [1 / 3, -2], phase_deg: [0.1, -90] }]);
     expect(csv).toBe('freq_hz,"ac(a, b)_mag_db","ac(a, b)_phase_deg"\r\n10,0.3333333333333333,0.1\r\n100,-2,-90\r\n');

@@ -1,0 +1,133 @@
+/**
+ * The geometry of a plot on linear axes (the transfer curves), free of the DOM: one panel per
+ * unit stacked over a shared x axis (volts above amperes), each y scale fitted to its curves
+ * with round ticks, a left margin wide enough for the longest tick label, and the sample
+ * nearest to a point. Kept pure so it is tested without a browser.
+ */
+import { scaleLinear, type ScaleLinear } from 'd3';
+import { formatTick } from '../si-format';
+import { textWidth } from './label-place';
+import { linearTicks } from './log-ticks';
+import type { CurveStyle } from './palette';
+import type { PanelBox } from './plot-geometry';
+
+/** One curve on a linear plot. */
+export interface XySeries {
+  key: string;
+  label: string;
+  /** Its unit: the panel it goes to. */
+  unit: string;
+  values: readonly number[];
+  style: CurveStyle;
+}
+
+export interface XyPanel {
+  unit: string;
+  title: string;
+  box: PanelBox;
+  y: ScaleLinear<number, number>;
+  ticks: number[];
+}
+
+export interface XyGeometry {
+  width: number;
+  height: number;
+  left: number;
+  innerWidth: number;
+  x: ScaleLinear<number, number>;
+  xTicks: number[];
+  panels: XyPanel[];
+}
+
+const MARGIN = { right: 24, top: 14, bottom: 42, gap: 22 } as const;
+/** Room left of the tick labels for the rotated axis title. */
+const TITLE_ROOM = 26;
+
+/** Axis titles for the units a transfer sweep has. */
+const UNIT_TITLES: Record<string, string> = { V: 'Voltage (V)', A: 'Current (A)' };
+
+export interface XyLayoutInput {
+  width: number;
+  height: number;
+  x: readonly number[];
+  series: readonly XySeries[];
+}
+
+/** Lays out the plot: one panel per unit in order of first appearance, sharing the height evenly. */
+export function layoutXy(input: XyLayoutInput): XyGeometry {
+  const { width, height, series } = input;
+  const units = [...new Set(series.map((s) => s.unit))];
+  if (units.length === 0) units.push('V');
+  const innerHeight = Math.max(60, height - MARGIN.top - MARGIN.bottom);
+  const panelHeight = (innerHeight - MARGIN.gap * (units.length - 1)) / units.length;
+  const xExtent = extent([input.x]) ?? [0, 1];
+  const xFit = fit(xExtent, false);
+  const fitted = units.map((unit, k) => {
+    const box: PanelBox = { top: MARGIN.top + k * (panelHeight + MARGIN.gap), height: panelHeight };
+    const yFit = fit(extent(series.filter((s) => s.unit === unit).map((s) => s.values)) ?? [0, 1], true);
+    return { unit, box, yFit };
+  });
+  // Wide enough for the longest tick label and the rotated title beside it.
+  const labelWidth = Math.max(...fitted.flatMap((p) => p.yFit.ticks.map((v) => textWidth(formatTick(v, p.unit)))), 20);
+  const left = Math.ceil(Math.max(58, labelWidth + 8 + TITLE_ROOM));
+  const innerWidth = Math.max(40, width - left - MARGIN.right);
+  const x = scaleLinear().domain(xFit.domain as [number, number]).range([0, innerWidth]);
+  const panels = fitted.map(({ unit, box, yFit }) => ({
+    unit, box, title: UNIT_TITLES[unit] ?? (unit ? `(${unit})` : 'Value'), ticks: yFit.ticks,
+    y: scaleLinear().domain(yFit.domain as [number, number]).range([box.top + box.height, box.top]),
+  }));
+  return { width, height, left, innerWidth, x, xTicks: linearTicks(xFit.domain[0], xFit.domain[1], Math.max(3, Math.floor(innerWidth / 80))).major, panels };
+}
+
+/** Min and max of the finite values of all columns. */
+function extent(columns: readonly (readonly number[])[]): [number, number] | undefined {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const values of columns) {
+    for (const v of values) {
+      if (!Number.isFinite(v)) continue;
+      if (v < lo) lo = v;
+      if (v > hi) hi = v;
+    }
+  }
+  return lo <= hi ? [lo, hi] : undefined;
+}
+
+/**
+ * A domain with round ticks: for y, padded and rounded outward to whole tick steps; for x, the
+ * sweep exactly (its ends are the data's). A flat span is widened so that it has ticks.
+ */
+function fit([lo, hi]: [number, number], outward: boolean): { domain: [number, number]; ticks: number[] } {
+  if (!(hi > lo)) {
+    const half = Math.max(Math.abs(lo) * 0.05, 1e-12);
+    lo -= half;
+    hi += half;
+  }
+  const step = tickStep(lo, hi);
+  if (outward) {
+    lo = Math.floor(lo / step - 1e-9) * step;
+    hi = Math.ceil(hi / step + 1e-9) * step;
+  }
+  const ticks: number[] = [];
+  for (let k = Math.ceil(lo / step - 1e-9); k * step <= hi + step * 1e-9; k++) ticks.push(Number((k * step).toPrecision(12)));
+  return { domain: [lo, hi], ticks };
+}
+
+function tickStep(lo: number, hi: number): number {
+  const t = linearTicks(lo, hi, 5).major;
+  return t.length > 1 ? t[1] - t[0] : (hi - lo) / 4;
+}
+
+/** Index of the sample nearest to `value` on the x axis. */
+export function nearestSample(x: readonly number[], value: number): number {
+  let best = 0;
+  let distance = Infinity;
+  for (let k = 0; k < x.length; k++) {
+    const d = Math.abs(x[k] - value);
+    if (d < distance) {
+      distance = d;
+      best = k;
+    }
+  }
+  return best;
+}
