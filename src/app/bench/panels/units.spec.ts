@@ -114,3 +114,14 @@ describe('measureDefinitions', () => {
     expect(measureDefinitions(undefined)).toEqual([]);
   });
 });
+
+describe('guessUnit with params', () => {
+  it('names no unit for a quantity divided by a param (a param’s unit is not written)', () => {
+    expect(guessUnit('ic(m1.qb) / iref')).toBe('');
+    expect(guessUnit('n * early / (1 + (1 + n)/beta)')).toBe('');
+  });
+  it('still adopts the unit in a sum and keeps literals as scale factors', () => {
+    expect(guessUnit('v(out) + offset')).toBe('V');
+    expect(guessUnit('2 * v(out)')).toBe('V');
+  });
+});

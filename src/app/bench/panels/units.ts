@@ -16,13 +16,16 @@ import { tokenize, type Token } from '../../../../solver/parse/tokens';
 import type { Unit } from './si-format';
 
 /** Exponents of V, A and s; `free` marks a bare number, which takes its neighbours' unit in sums. */
-interface Dims { kind: 'dims'; v: number; a: number; s: number; free?: boolean }
+interface Dims { kind: 'dims'; v: number; a: number; s: number; free?: boolean; param?: boolean }
 /** dB and degrees are no products of base units; `other` is what the algebra cannot name. */
 type Value = Dims | { kind: 'dB' | '°' | 'other' };
 
 const dims = (v: number, a: number, s: number): Dims => ({ kind: 'dims', v, a, s });
 const PLAIN = dims(0, 0, 0);
 const FREE: Dims = { ...PLAIN, free: true };
+/** A param: a number whose unit is not written. It adopts a unit in a sum, but a product or
+ *  quotient of it with a unit names nothing (`ic(q) / iref`, iref a current, is no ampere). */
+const PARAM: Dims = { ...FREE, param: true };
 const OTHER: Value = { kind: 'other' };
 
 /** Each unit the bench writes, as exponents of V, A and s. */
@@ -44,6 +47,9 @@ const FUNCTION_UNITS: Record<string, Unit> = {
   // ac(n) is the response to the sources' ac= drive, read as a gain (drive 1 V, get V/V).
   ac: '',
 };
+
+/** Constants of expressions (docs/netlist.md §2): plain numbers. */
+const CONSTANTS = new Set(['pi', 'e']);
 
 /** Figures of the ports analysis that stand as bare names. */
 const NAME_UNITS: Record<string, Unit> = { cmrr_db: 'dB', adm: '', acm: '', cmrr: '' };
@@ -71,8 +77,11 @@ function sum(terms: Value[]): Value {
 
 /** x·y^sign (sign −1 for a quotient). dB and ° survive scaling by a bare number only. */
 function product(x: Value, y: Value, sign: 1 | -1): Value {
+  const param = (d: Value) => d.kind === 'dims' && !!d.param;
+  const united = (d: Value) => d.kind !== 'dims' || (!d.free && !(d.v === 0 && d.a === 0 && d.s === 0));
+  if ((param(x) && united(y)) || (param(y) && united(x))) return OTHER;
   if (x.kind === 'dims' && y.kind === 'dims') {
-    return { kind: 'dims', v: x.v + sign * y.v, a: x.a + sign * y.a, s: x.s + sign * y.s, ...(x.free && y.free ? { free: true } : {}) };
+    return { kind: 'dims', v: x.v + sign * y.v, a: x.a + sign * y.a, s: x.s + sign * y.s, ...(x.free && y.free ? { free: true, ...(x.param || y.param ? { param: true } : {}) } : {}) };
   }
   if (y.kind === 'dims' && y.free) return x;
   if (sign === 1 && x.kind === 'dims' && x.free) return y;
@@ -173,8 +182,8 @@ class UnitParser {
   private name(name: string): Value {
     if (name in this.known) return fromUnit(this.known[name]);
     if (name in NAME_UNITS) return fromUnit(NAME_UNITS[name]);
-    // A param (its unit is not written) or a constant such as pi: a bare number.
-    return FREE;
+    // A constant is a plain number; a param is a number whose unit is not written.
+    return CONSTANTS.has(name) ? FREE : PARAM;
   }
 
   private call(fn: string, args: Operand[]): Value {
