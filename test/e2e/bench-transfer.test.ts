@@ -167,7 +167,7 @@ describe('the Transfer tab', () => {
     await page.close();
   });
 
-  it('shows the Transfer, Response and Modes tabs at 1280×800 and 1920×1080 for the screenshots', async () => {
+  it('shows the Transfer, Response and Modes tabs at 1280×800 and 1920×1080 for the screenshots', { timeout: 120_000 }, async () => {
     const page = await openBench();
     await replaceNetlist(page, PAIR);
     await waitForPainted(page);
@@ -188,7 +188,7 @@ describe('the Transfer tab', () => {
     }
     // The CMRR plot exports too.
     const modes = page.locator('nw-modes-panel');
-    const cmrr = await download(page, modes.getByRole('button', { name: 'Export the curves as CSV' }));
+    const cmrr = await download(page, modes.getByRole('button', { name: 'CSV: export the curves' }));
     expect(cmrr.name).toBe('swept-pair-cmrr.csv');
     expect(cmrr.bytes.toString('utf8').split('\r\n')[0]).toBe('freq_hz,cmrr_mag_db,cmrr_phase_deg');
     expect(page.problems).toEqual([]);
