@@ -60,6 +60,8 @@ export interface VersionView extends VersionSummary {
 
 export interface CatalogueQuery {
   q?: string;
+  /** One block by its exact path. */
+  path?: string;
   category?: string;
   state?: BlockState;
   tag?: string;
@@ -93,8 +95,9 @@ export async function listBlocks(ds: DataSource, userId: string, slug: string, q
        AND ($3::text IS NULL OR b.category = $3)
        AND ($4::text IS NULL OR EXISTS (SELECT 1 FROM block_versions v WHERE v.block_id = b.id AND v.state = $4))
        AND ($5::text IS NULL OR $5 = ANY (b.tags))
+       AND ($6::text IS NULL OR b.path = $6)
      ORDER BY b.path`,
-    [ws.id, like, q.category ?? null, q.state ?? null, q.tag ?? null],
+    [ws.id, like, q.category ?? null, q.state ?? null, q.tag ?? null, q.path ?? null],
   );
   return {
     total: rows.length,
@@ -146,7 +149,7 @@ function versionSummary(r: VersionRow): VersionSummary {
 export async function getBlock(ds: DataSource, userId: string, slug: string, path: string): Promise<BlockSummary & { versionsList: VersionSummary[] }> {
   const ws = await workspaceFor(ds, slug, userId, 'viewer');
   const block = await blockByPath(ds, ws.id, path);
-  const summary = (await listBlocks(ds, userId, slug, {})).items.find((b) => b.id === block.id)!;
+  const [summary] = (await listBlocks(ds, userId, slug, { path })).items;
   const rows: VersionRow[] = await ds.query(`${VERSION_SELECT} WHERE v.block_id = $1 ORDER BY v.version DESC`, [block.id]);
   return { ...summary, versionsList: rows.map(versionSummary) };
 }

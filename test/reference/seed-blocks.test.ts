@@ -113,8 +113,7 @@ describe.each(rows)('seed file %s', (key, e) => {
 });
 
 describe('mirror ratios against the textbook (library models: β = 100, VA = 80 V)', () => {
-  // Gray, Hurst, Lewis & Meyer, Analysis and Design of Analog Integrated Circuits, 5th ed.,
-  // §4.2.2 (simple bipolar mirror, section from memory): IO/IIN = n·(1 + VCE2/VA)/(1 + VCE1/VA)
+  // Gray et al., 5th ed., §4.2.2 (simple bipolar mirror, section from memory): IO/IIN = n·(1 + VCE2/VA)/(1 + VCE1/VA)
   // / (1 + (1 + n)/βF). Exact for this model but for 2/β·VCE1/VA (2·10⁻⁴) in the base currents.
   it('simple npn mirror, ratio 2', () => {
     const r = solveSeed('mirrors/simple_npn@1');
