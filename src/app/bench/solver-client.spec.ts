@@ -3,7 +3,11 @@ import type { SolveResult } from '../../../solver';
 import { FINISH_MS, SLOW_MS, SOLVER_WORKER_FACTORY, SolverClient, SPARE_DELAY_MS, type WorkerLike } from './solver-client';
 import { NO_NAMES, type SolveRequest, type WorkerMessage } from './solver-protocol';
 
-/** jsdom has no Worker: a fake that records what it is sent and answers when told to. */
+/**
+ * jsdom has no Worker: a fake that records what it is sent and answers when told to. Like the
+ * real one it says when its module has loaded (`ready`), and answers any request it is told to:
+ * the tests play the worker's part, coalescing included.
+ */
 class FakeWorker implements WorkerLike {
   static made: FakeWorker[] = [];
   sent: SolveRequest[] = [];
@@ -20,12 +24,20 @@ class FakeWorker implements WorkerLike {
   terminate(): void {
     this.terminated = true;
   }
-  /** Answers the last request with a result titled by its text (a circuit that solved, unless told otherwise). */
-  answer(request = this.sent[this.sent.length - 1], solved = true): void {
+  /** Its module has loaded. */
+  ready(): this {
+    this.onmessage?.({ data: { type: 'ready' } } as MessageEvent<WorkerMessage>);
+    return this;
+  }
+  /** Answers a request (the last by default) with a result titled by its text, after `solveMs` in the worker. */
+  answer(request = this.sent[this.sent.length - 1], { solved = true, solveMs = 5 } = {}): void {
     if (this.terminated) return;
     const op = solved ? { nodes: {}, sources: {}, parts: {}, devices: {} } : undefined;
     const result = { title: request.text, temp_c: 27, op, measures: {}, checks: [], warnings: [], errors: [] } as SolveResult;
-    this.onmessage?.({ data: { type: 'solved', id: request.id, result, text: request.text, names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>);
+    this.onmessage?.({ data: { type: 'solved', id: request.id, result, text: request.text, names: NO_NAMES, solveMs } } as MessageEvent<WorkerMessage>);
+  }
+  texts(): string[] {
+    return this.sent.map((r) => r.text);
   }
 }
 
@@ -44,88 +56,123 @@ describe('SolverClient', () => {
   });
   afterEach(() => vi.useRealTimers());
 
-  /** The texts each worker was sent, in order of creation. */
-  function sent(): string[][] {
-    return FakeWorker.made.map((w) => w.sent.map((r) => r.text));
-  }
-
-  /** A first solve that took `ms`, so the client knows how long solves of this netlist take. */
-  function firstSolve(text: string, ms: number): FakeWorker {
+  /** A loaded worker that has answered a first solve that took `solveMs` (so the client knows). */
+  function firstSolve(text: string, solveMs: number): FakeWorker {
+    client.warmUp();
+    const w = FakeWorker.made[0].ready();
     client.solveNow(text);
-    vi.advanceTimersByTime(ms);
-    const w = live()[0];
-    w.answer();
+    vi.advanceTimersByTime(solveMs);
+    w.answer(undefined, { solveMs });
     return w;
   }
 
-  it('solves every edit at once, in the worker, with no quiet period to wait for', () => {
+  it('sends every edit at once, to the worker, with no quiet period to wait for', () => {
     client.warmUp();
     expect(FakeWorker.made).toHaveLength(1);
     client.edit('a');
     expect(client.status()).toBe('waiting');
     vi.advanceTimersByTime(0);
-    expect(sent()).toEqual([['a']]);
+    expect(FakeWorker.made[0].texts()).toEqual(['a']);
     expect(client.status()).toBe('solving');
     FakeWorker.made[0].answer();
     expect(client.reply()?.result.title).toBe('a');
     expect(client.status()).toBe('idle');
   });
 
-  it('makes one solve of the edits of one task (a paste and its autoindent)', () => {
+  it('makes one request of the edits of one task (a paste and its autoindent)', () => {
     client.edit('r');
     client.edit('rc');
     vi.advanceTimersByTime(0);
-    expect(sent()).toEqual([['rc']]);
+    expect(FakeWorker.made[0].texts()).toEqual(['rc']);
   });
 
-  it('lets a nearly finished stale solve end, drops its reply, and then solves only the newest text', () => {
+  it('lets a nearly finished stale solve end, queues the newest text behind it, and drops the stale reply', () => {
     const w = firstSolve('r', 5);
-    client.edit('rc');
-    vi.advanceTimersByTime(0);
-    // Two more keystrokes while `rc` solves: it is stale, but the last solve says it ends soon.
-    client.edit('rc1');
-    vi.advanceTimersByTime(0);
-    client.edit('rc1:');
-    vi.advanceTimersByTime(0);
+    for (const text of ['rc', 'rc1', 'rc1:']) {
+      client.edit(text);
+      vi.advanceTimersByTime(0);
+    }
+    // `rc` is stale but ends within FINISH_MS: the newer texts wait on the same worker.
     expect(w.terminated).toBe(false);
-    expect(client.status()).toBe('waiting');
-    w.answer(); // the reply for `rc` is dropped and `rc1:` follows on the same worker
+    expect(w.texts()).toEqual(['r', 'rc', 'rc1', 'rc1:']);
+    w.answer(w.sent[1]); // the worker ends `rc`, then solves only the newest (it coalesces)
     expect(client.reply()?.result.title).toBe('r');
-    expect(sent()[0]).toEqual(['r', 'rc', 'rc1:']);
+    expect(client.status()).toBe('solving');
     w.answer();
     expect(client.reply()?.result.title).toBe('rc1:');
     expect(client.abandoned()).toBe(0);
   });
 
-  it(`terminates a stale solve that has not ended within ${FINISH_MS} ms and hands the newest text to the spare`, () => {
+  it('terminates a stale solve that overruns its expected time and sends the newest text to the loaded spare', () => {
     const first = firstSolve('quick', 5);
     vi.advanceTimersByTime(SPARE_DELAY_MS);
-    expect(FakeWorker.made).toHaveLength(2); // the spare, loaded after the first reply
-    const spare = FakeWorker.made[1];
+    expect(FakeWorker.made).toHaveLength(2);
+    const spare = FakeWorker.made[1].ready();
     client.solveNow('turned slow');
-    client.edit('newer');
-    vi.advanceTimersByTime(FINISH_MS - 1);
+    client.solveNow('newer');
+    expect(first.texts()).toEqual(['quick', 'turned slow', 'newer']);
+    vi.advanceTimersByTime(5 + FINISH_MS - 1);
     expect(first.terminated).toBe(false);
     vi.advanceTimersByTime(1);
     expect(first.terminated).toBe(true);
     expect(client.abandoned()).toBe(1);
-    // The spare takes the newest text at once (its module is loaded); a new spare starts loading.
-    expect(spare.sent.map((r) => r.text)).toEqual(['newer']);
-    expect(live()).toHaveLength(2);
+    expect(spare.texts()).toEqual(['newer']);
+    expect(live()).toHaveLength(2); // a new spare loads on the freed core
     spare.answer();
     expect(client.reply()?.result.title).toBe('newer');
   });
 
+  it('lets the worker be once the stale solve has ended and it has turned to the newest text', () => {
+    const w = firstSolve('quick', 5);
+    client.solveNow('a');
+    client.solveNow('b');
+    w.answer(w.sent[1]); // `a` ends in time: the worker is on `b` now
+    vi.advanceTimersByTime(5 + FINISH_MS + 100);
+    expect(w.terminated).toBe(false);
+    w.answer();
+    expect(client.reply()?.result.title).toBe('b');
+  });
+
   it('terminates at once a stale solve that the last solve says will run long', () => {
-    firstSolve('slow netlist', 400);
+    const first = firstSolve('slow netlist', 400);
+    vi.advanceTimersByTime(SPARE_DELAY_MS);
+    const spare = FakeWorker.made[1].ready();
     client.solveNow('slow netlist, edited');
     vi.advanceTimersByTime(50);
     client.edit('newer');
     vi.advanceTimersByTime(0);
-    expect(FakeWorker.made[0].terminated).toBe(true);
-    expect(client.abandoned()).toBe(1);
-    expect(live()).toHaveLength(1);
-    expect(live()[0].sent.map((r) => r.text)).toEqual(['newer']);
+    expect(first.terminated).toBe(true);
+    expect(spare.texts()).toEqual(['newer']);
+  });
+
+  it('waits for a spare still loading when that is sooner than a stale solve, not for one that loads later', () => {
+    // Workers take 200 ms to load here; solves 100 ms.
+    client.warmUp();
+    vi.advanceTimersByTime(200);
+    const first = FakeWorker.made[0].ready();
+    client.solveNow('a');
+    vi.advanceTimersByTime(100);
+    first.answer(undefined, { solveMs: 100 });
+    vi.advanceTimersByTime(SPARE_DELAY_MS);
+    expect(FakeWorker.made).toHaveLength(2); // the spare, loading
+    client.solveNow('b');
+    vi.advanceTimersByTime(10);
+    client.solveNow('c'); // `b` ends in 90 ms; the spare is loaded in 200 ms: keep `b`
+    expect(first.terminated).toBe(false);
+    expect(first.texts()).toEqual(['a', 'b', 'c']);
+  });
+
+  it('never terminates a worker still loading its module: the newest text waits there', () => {
+    client.warmUp();
+    client.solveNow('a');
+    client.edit('ab');
+    vi.advanceTimersByTime(0);
+    const w = FakeWorker.made[0];
+    expect(w.terminated).toBe(false);
+    expect(w.texts()).toEqual(['a', 'ab']);
+    w.ready().answer(); // the loaded worker solves only the newest
+    expect(client.reply()?.result.title).toBe('ab');
+    expect(client.status()).toBe('idle');
   });
 
   it('ignores a late reply to a request that was superseded', () => {
@@ -144,7 +191,7 @@ describe('SolverClient', () => {
   it('keeps the last reply whose circuit solved, and forgets it for another netlist', () => {
     const w = firstSolve('solves', 5);
     client.solveNow('circuit broken');
-    w.answer(undefined, false);
+    w.answer(undefined, { solved: false });
     expect(client.reply()?.result.title).toBe('circuit broken');
     expect(client.lastSolved()?.result.title).toBe('solves');
     client.forgetLastSolved();

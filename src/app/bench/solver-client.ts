@@ -3,15 +3,18 @@
  * newest text's result is ever shown. The main thread never solves.
  *
  * Timing, chosen so results follow the typing with no quiet period to wait for:
- *  - every edit is solved at once (edits made in one task — a paste with its autoindent — are one
- *    solve); one solve runs at a time, and texts typed meanwhile are coalesced: only the newest
- *    is solved next;
+ *  - every edit is sent to the worker at once (edits made in one task — a paste with its
+ *    autoindent — are one request). A worker still busy queues it, and of the requests queued
+ *    there only the newest is solved (see solver.worker.ts), so typing never piles up solves;
  *  - a solve still running when newer text arrives is stale and its reply is dropped. Ending it
- *    has a price, because a worker cannot be interrupted, only terminated. So a stale solve that
- *    the previous solve's time says is nearly done is left to finish — for at most FINISH_MS more
- *    — and the newest text follows on the same worker; otherwise its worker is terminated and
- *    the newest text goes at once to a warm spare whose module is already loaded, and a new spare
- *    loads on the core the terminated solve just freed;
+ *    early has a price, because a worker cannot be interrupted, only terminated, and a fresh one
+ *    must load its module first. So the client keeps a warm spare (spawned once the first result
+ *    is on screen) and weighs when the newest text could start: after the stale solve, which the
+ *    previous solve's time says ends in so many ms, or on the spare — at once when it has loaded,
+ *    else when it will have. The stale solve is terminated only when the spare wins by more than
+ *    FINISH_MS; otherwise it is left to finish, with a deadline that ends it should it overrun. A
+ *    worker still loading is never terminated (a fresh one would load no sooner). A new spare
+ *    loads on the core a terminated solve freed;
  *  - a solve longer than SLOW_MS raises `slow`, for a progress indicator with a cancel button.
  */
 import { DestroyRef, inject, Injectable, InjectionToken, signal } from '@angular/core';
@@ -33,7 +36,7 @@ export const SOLVER_WORKER_FACTORY = new InjectionToken<WorkerFactory>('solver w
   factory: () => () => new Worker(new URL('./solver.worker', import.meta.url), { type: 'module' }) as unknown as WorkerLike,
 });
 
-/** The longest a stale solve is left to finish before its worker is terminated. */
+/** A stale solve is terminated only if the spare would start the newest text this much sooner. */
 export const FINISH_MS = 30;
 export const SLOW_MS = 300;
 /** After the first reply, the spare worker is spawned this much later (off the page's first paint). */
@@ -41,43 +44,53 @@ export const SPARE_DELAY_MS = 500;
 
 export type SolveStatus = 'idle' | 'waiting' | 'solving' | 'cancelled' | 'failed';
 
-/** The solve on the active worker. */
-interface Running {
+/** A worker with the time it was spawned and, once its module has loaded, ready. */
+interface Handle {
+  worker: WorkerLike;
+  spawnedAt: number;
+  readyAt?: number;
+}
+
+/** A request sent to the active worker. */
+interface Request {
   id: number;
-  startedAt: number;
-  /** Newer text has arrived: the reply will be dropped. */
-  stale: boolean;
+  text: string;
+  /** When it was sent, or when the worker turned to it after a stale solve. */
+  since: number;
 }
 
 @Injectable()
 export class SolverClient {
   private readonly makeWorker = inject(SOLVER_WORKER_FACTORY);
-  private worker: WorkerLike | undefined;
-  /** A loaded, idle worker that takes over at once when the active one is terminated. */
-  private spare: WorkerLike | undefined;
+  private active: Handle | undefined;
+  /** An idle worker that takes over when the active one is terminated. */
+  private spare: Handle | undefined;
   private nextId = 1;
-  private running: Running | undefined;
+  /** The newest request sent: the only one whose reply is shown. */
+  private running: Request | undefined;
+  /** The request the active worker is busy with: `running`, or a stale one before it. */
+  private busy: Request | undefined;
   private pendingText: string | undefined;
   private flushTimer: ReturnType<typeof setTimeout> | undefined;
-  private finishTimer: ReturnType<typeof setTimeout> | undefined;
+  private deadlineTimer: ReturnType<typeof setTimeout> | undefined;
   private slowTimer: ReturnType<typeof setTimeout> | undefined;
   private spareTimer: ReturnType<typeof setTimeout> | undefined;
-  /** Post-to-reply time of the last solve that finished, ms: how long the next is likely to take. */
+  /** How long the last solve took inside the worker, ms: how long the next is likely to take. */
   private lastSolveMs: number | undefined;
+  /** Spawn-to-ready time of the last worker that loaded, ms. */
+  private loadMs: number | undefined;
   private disposed = false;
 
   /** The newest reply (only ever for the newest text sent). */
   readonly reply = signal<SolveReply | undefined>(undefined);
   /** The newest reply whose circuit solved (it has an operating point); see `forgetLastSolved`. */
   readonly lastSolved = signal<SolveReply | undefined>(undefined);
-  /** @deprecated The former name of `lastSolved`, kept until the bias panel reads the new one. */
-  readonly lastClean = this.lastSolved;
   readonly status = signal<SolveStatus>('idle');
   /** True while a solve has taken longer than SLOW_MS. */
   readonly slow = signal(false);
   /** A worker failure that is not a netlist problem (e.g. the worker script failed to load). */
   readonly failure = signal<string | undefined>(undefined);
-  /** How many running solves were terminated for newer text (for diagnostics and tests). */
+  /** How many busy workers were terminated for newer text or a cancel (for diagnostics and tests). */
   readonly abandoned = signal(0);
 
   constructor() {
@@ -86,10 +99,10 @@ export class SolverClient {
 
   /** Spawns the worker ahead of the first solve so its module is loaded by then. */
   warmUp(): void {
-    this.ensureWorker();
+    this.ensureActive();
   }
 
-  /** New text from the editor: solved as soon as the worker is free (see the timing rules above). */
+  /** New text from the editor: sent at once (see the timing rules above). */
   edit(text: string): void {
     this.pendingText = text;
     this.status.set('waiting');
@@ -107,115 +120,137 @@ export class SolverClient {
     this.lastSolved.set(undefined);
   }
 
-  /** @deprecated The former name of `forgetLastSolved`, kept until the shared view calls the new one. */
-  forgetClean(): void {
-    this.forgetLastSolved();
-  }
-
   /** Stops the solve in progress (and any scheduled one); the last result stays. */
   cancel(): void {
     this.clearFlush();
     this.pendingText = undefined;
-    if (this.running) this.abandonRunning();
+    if (this.busy) this.terminateActive();
+    this.running = undefined;
     this.status.set('cancelled');
   }
 
-  /** Sends the pending text, unless a solve is running: then decides what becomes of that one. */
+  /** Sends the pending text; a busy worker is kept (the text waits there) or terminated. */
   private flush(): void {
     this.clearFlush();
     const text = this.pendingText;
     if (text === undefined || this.disposed) return;
-    if (this.running) {
-      this.running.stale = true;
-      if (this.worthFinishing(this.running)) {
-        this.finishTimer ??= setTimeout(() => this.giveUpOnStale(), FINISH_MS);
-        return; // the reply of the stale solve sends the pending text
-      }
-      this.abandonRunning();
-    }
     this.pendingText = undefined;
-    const id = this.nextId++;
-    this.running = { id, startedAt: performance.now(), stale: false };
+    if (this.busy) {
+      const wait = this.waitForBusy(this.busy);
+      if (wait === undefined) this.terminateActive();
+      else if (wait !== Infinity) this.deadlineTimer ??= setTimeout(() => this.giveUpOnStale(), wait + FINISH_MS);
+    }
+    this.send(text);
+  }
+
+  private send(text: string): void {
+    const request: Request = { id: this.nextId++, text, since: performance.now() };
+    this.running = request;
+    this.busy ??= request;
     this.status.set('solving');
     this.clearSlow();
     this.slowTimer = setTimeout(() => this.slow.set(true), SLOW_MS);
-    this.ensureWorker().postMessage({ type: 'solve', id, text });
+    this.ensureActive().worker.postMessage({ type: 'solve', id: request.id, text });
   }
 
-  /** Whether a stale solve is likely to end within FINISH_MS, judging by the last solve's time. */
-  private worthFinishing(running: Running): boolean {
-    if (this.lastSolveMs === undefined) return false;
-    return this.lastSolveMs - (performance.now() - running.startedAt) <= FINISH_MS;
+  /**
+   * How long to let the busy worker's (now stale) solve run on, ms — Infinity while the worker is
+   * still loading — or undefined when terminating it lets the newest text start more than
+   * FINISH_MS sooner on the spare (or on a fresh worker).
+   */
+  private waitForBusy(busy: Request): number | undefined {
+    const now = performance.now();
+    const active = this.active!;
+    if (active.readyAt === undefined) return Infinity;
+    const finishesIn = this.lastSolveMs === undefined ? Infinity : Math.max(0, this.lastSolveMs - (now - Math.max(busy.since, active.readyAt)));
+    const load = this.loadMs ?? 0;
+    const spareIn = !this.spare ? load : this.spare.readyAt !== undefined ? 0 : Math.max(0, load - (now - this.spare.spawnedAt));
+    return finishesIn <= spareIn + FINISH_MS ? finishesIn : undefined;
   }
 
+  /** The deadline of a stale solve passed: the newest text moves to the spare. */
   private giveUpOnStale(): void {
-    this.finishTimer = undefined;
-    if (!this.running?.stale) return;
-    this.abandonRunning();
-    this.flush();
+    this.deadlineTimer = undefined;
+    const running = this.running;
+    if (!running || this.busy === running) return;
+    this.terminateActive();
+    this.send(running.text);
   }
 
-  private onMessage(source: WorkerLike, message: WorkerMessage): void {
-    if (source !== this.worker || message.type !== 'solved' || message.id !== this.running?.id) return;
-    const { stale, startedAt } = this.running;
+  private onMessage(source: Handle, message: WorkerMessage): void {
+    const now = performance.now();
+    if (message.type === 'ready') {
+      source.readyAt = now;
+      this.loadMs = now - source.spawnedAt;
+      return;
+    }
+    if (source !== this.active) return;
+    this.lastSolveMs = message.solveMs;
+    this.clearDeadline();
+    if (message.id !== this.running?.id) {
+      // A stale reply: the worker has turned to the newest request, which was waiting there.
+      if (this.running) {
+        this.running.since = now;
+        this.busy = this.running;
+      }
+      return;
+    }
     this.running = undefined;
-    this.lastSolveMs = performance.now() - startedAt;
-    this.clearFinish();
+    this.busy = undefined;
     this.clearSlow();
     this.failure.set(undefined);
-    if (!stale) {
-      this.reply.set(message);
-      if (message.result.op) this.lastSolved.set(message);
-    }
+    this.reply.set(message);
+    if (message.result.op) this.lastSolved.set(message);
     this.scheduleSpare();
-    if (this.pendingText !== undefined) this.flush();
-    else this.status.set('idle');
+    if (this.pendingText === undefined) this.status.set('idle');
   }
 
-  private onError(source: WorkerLike, event: ErrorEvent): void {
+  private onError(source: Handle, event: ErrorEvent): void {
     event.preventDefault?.();
-    source.terminate();
+    source.worker.terminate();
     if (source === this.spare) {
       // A spare that fails to load is not worth a second try; the active worker carries on.
       this.spare = undefined;
       return;
     }
+    if (source !== this.active) return;
     this.running = undefined;
-    this.clearFinish();
+    this.busy = undefined;
+    this.clearDeadline();
     this.clearSlow();
-    this.worker = this.spare;
+    this.active = this.spare;
     this.spare = undefined;
     this.failure.set(event.message || 'The solver worker stopped unexpectedly.');
     this.status.set('failed');
   }
 
-  /** Terminates the worker busy with stale text; the spare, when there is one, takes its place. */
-  private abandonRunning(): void {
-    this.running = undefined;
-    this.clearFinish();
+  /** Terminates the busy worker; the spare, when there is one, takes its place. */
+  private terminateActive(): void {
+    this.busy = undefined;
+    this.clearDeadline();
     this.clearSlow();
-    this.worker?.terminate();
-    this.worker = this.spare;
+    this.active?.worker.terminate();
+    this.active = this.spare;
     this.abandoned.update((n) => n + 1);
     if (this.spare) {
       // The terminated solve freed a core: the next spare loads on it.
       this.spare = this.spawn();
     } else {
       // No spare yet: a fresh worker starts loading now; a spare follows its first reply.
-      this.ensureWorker();
+      this.ensureActive();
     }
   }
 
-  private ensureWorker(): WorkerLike {
-    this.worker ??= this.spawn();
-    return this.worker;
+  private ensureActive(): Handle {
+    this.active ??= this.spawn();
+    return this.active;
   }
 
-  private spawn(): WorkerLike {
-    const worker = this.makeWorker();
-    worker.onmessage = (e) => this.onMessage(worker, e.data);
-    worker.onerror = (e) => this.onError(worker, e);
-    return worker;
+  private spawn(): Handle {
+    const handle: Handle = { worker: this.makeWorker(), spawnedAt: performance.now() };
+    handle.worker.onmessage = (e) => this.onMessage(handle, e.data);
+    handle.worker.onerror = (e) => this.onError(handle, e);
+    return handle;
   }
 
   /** The first spare is spawned a little after a reply, so it never delays the page's first results. */
@@ -232,9 +267,9 @@ export class SolverClient {
     this.flushTimer = undefined;
   }
 
-  private clearFinish(): void {
-    if (this.finishTimer !== undefined) clearTimeout(this.finishTimer);
-    this.finishTimer = undefined;
+  private clearDeadline(): void {
+    if (this.deadlineTimer !== undefined) clearTimeout(this.deadlineTimer);
+    this.deadlineTimer = undefined;
   }
 
   private clearSlow(): void {
@@ -246,12 +281,12 @@ export class SolverClient {
   private dispose(): void {
     this.disposed = true;
     this.clearFlush();
-    this.clearFinish();
+    this.clearDeadline();
     this.clearSlow();
     if (this.spareTimer !== undefined) clearTimeout(this.spareTimer);
-    this.worker?.terminate();
-    this.spare?.terminate();
-    this.worker = undefined;
+    this.active?.worker.terminate();
+    this.spare?.worker.terminate();
+    this.active = undefined;
     this.spare = undefined;
   }
 }

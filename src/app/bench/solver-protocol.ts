@@ -24,7 +24,10 @@ export const NO_NAMES: NetlistNames = { models: [], blocks: [], params: [], part
 /** Bench → worker. */
 export interface SolveRequest {
   type: 'solve';
-  /** Increases with every request; a reply answers the request of the same id. */
+  /**
+   * Increases with every request; a reply answers the request of the same id. A request still
+   * waiting when a newer one arrives is superseded and gets no reply.
+   */
   id: number;
   text: string;
 }
@@ -37,7 +40,7 @@ export interface SolveReply {
   /** The text solved (echoed, so a panel can read measure lines from the very text of its result). */
   text: string;
   names: NetlistNames;
-  /** Wall time of the solve inside the worker, ms. */
+  /** Wall time of the solve inside the worker, ms (the bench's guess of how long the next will take). */
   solveMs: number;
 }
 

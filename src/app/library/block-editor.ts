@@ -75,7 +75,7 @@ export class BlockEditor {
       untracked(() => {
         this.document.update((d) => ({ key: d.key + 1, text }));
         this.text.set(text);
-        this.client.forgetClean();
+        this.client.forgetLastSolved();
         this.client.solveNow(text);
       });
     });

@@ -264,7 +264,7 @@ export class BlockPage {
       if (!v) return;
       untracked(() => {
         this.title.setTitle(`${v.path} v${v.version} · Block library · Nodewright`);
-        this.client.forgetClean();
+        this.client.forgetLastSolved();
         this.client.solveNow(v.source);
       });
     });

@@ -146,7 +146,7 @@ export class SharedPage {
       this.document.update((d) => ({ key: d.key + 1, text: shared.source }));
       this.load.set({ kind: 'shown', shared });
       this.title.setTitle(`${shared.name} · Shared netlist · Nodewright`);
-      this.client.forgetClean();
+      this.client.forgetLastSolved();
       this.client.solveNow(shared.source);
     } catch (err) {
       const e = apiErrorOf(err);

@@ -156,7 +156,7 @@ export class BiasPanel {
    * or the last clean one while the text has errors); empty where there is no solver client.
    */
   private readonly kinds = computed<ReadonlyMap<string, string>>(() => {
-    const reply = [this.client?.reply(), this.client?.lastClean()].find((r) => r && r.result === this.result());
+    const reply = [this.client?.reply(), this.client?.lastSolved()].find((r) => r && r.result === this.result());
     return new Map((reply?.names.parts ?? []).map((p) => [p.name, p.kind]));
   });
   private readonly branches = computed(() => { const op = this.op(); return op ? branchGroups(op, this.kinds()) : { sources: [], parts: [] }; });

@@ -25,7 +25,7 @@ describe('OpTable', () => {
       await fixture.whenStable();
       expect(bodyRows()).toHaveLength(3 * ROWS_PER_FRAME + 5);
     });
-    expect(bodyRows()[3 * ROWS_PER_FRAME + 4].textContent).toContain('n124');
+    expect(bodyRows()[3 * ROWS_PER_FRAME + 4].textContent).toContain(`n${3 * ROWS_PER_FRAME + 4}`);
   });
 
   it('updates the cells of the same rows for a new result of the same circuit', async () => {

@@ -27,7 +27,7 @@ export interface OpColumn<Row> {
 }
 
 /** Rows first rendered in one frame: a long table grows by this many a frame, so no frame is long. */
-export const ROWS_PER_FRAME = 40;
+export const ROWS_PER_FRAME = 16;
 
 const nextFrame: (run: () => void) => () => void = typeof requestAnimationFrame === 'function'
   ? (run) => { const id = requestAnimationFrame(run); return () => cancelAnimationFrame(id); }
