@@ -175,14 +175,17 @@ describe('the Transfer tab', () => {
       await page.setViewportSize({ width, height });
       for (const tab of ['Transfer', 'Response', 'Modes']) {
         await page.getByRole('tab', { name: tab }).click();
-        const plot = page.locator('.mat-mdc-tab-body-active svg.plot');
-        await plot.locator('path.curve').first().waitFor();
+        // The panel's own element, not "the active tab body": while the tabs slide, the body that is
+        // leaving is still marked active for a frame and its plot then vanishes under the locator.
+        const plot = page.locator(`nw-${tab.toLowerCase()}-panel svg.plot`).first();
+        await plot.locator('path.curve').first().waitFor({ state: 'visible' });
+        await expect.poll(async () => (await plot.boundingBox())?.height ?? 0).toBeGreaterThan(0);
         const b = (await plot.boundingBox())!;
         // Plots keep a readable height on the laptop, and fill the tall screen.
         expect(b.height).toBeGreaterThanOrEqual(220);
         await page.mouse.move(b.x + b.width * 0.62, b.y + b.height * 0.35);
         await page.waitForTimeout(150);
-        expect(overlapping(await labelBoxes(page.locator('.mat-mdc-tab-body-active')))).toEqual([]);
+        expect(overlapping(await labelBoxes(page.locator(`nw-${tab.toLowerCase()}-panel`)))).toEqual([]);
         await shot(page, `transfer-tabs-${tab.toLowerCase()}-${width}x${height}.png`);
       }
     }

@@ -46,7 +46,7 @@ export const PAINTED_MARK = 'nw-painted';
       <nw-netlist-editor netlist class="editor" [document]="store.document()" [diagnostics]="store.diagnostics()" [names]="store.names()"
         [reveal]="store.reveal()" label="Netlist editor" (textChange)="store.edit($event)" (command)="command($event)"
         (fileDropped)="openFile($event)" (cursorLine)="store.cursorLine.set($event)" />
-      <nw-problems-list problems [diagnostics]="store.diagnostics()" (selected)="goToProblem($event)" />
+      <nw-problems-list problems [diagnostics]="store.diagnostics()" [stale]="store.stale()" (selected)="goToProblem($event)" />
       <nw-results-panels class="results" [result]="store.shown()" [text]="store.shownText()" [stale]="store.stale()" [errorCount]="store.errorCount()"
         [status]="client.status()" [slow]="client.slow()" [solveMs]="store.solveMs()" [failure]="client.failure()"
         (cancel)="client.cancel()" (lineSelected)="store.selectLine($event)" />

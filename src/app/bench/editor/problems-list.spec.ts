@@ -34,3 +34,18 @@ describe('ProblemsList', () => {
     expect(el.querySelector('.head')!.textContent).toContain('2 errors, 0 warnings');
   });
 });
+
+describe('ProblemsList with an earlier text', () => {
+  it('shows no green "No problems" for the diagnostics of an earlier text', async () => {
+    const fixture = TestBed.createComponent(ProblemsList);
+    fixture.componentRef.setInput('diagnostics', []);
+    fixture.componentRef.setInput('stale', true);
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    expect(el.querySelector('.ok')).toBeNull();
+    expect(el.querySelector('.head')!.textContent).toContain('No problems in an earlier version of the text');
+    fixture.componentRef.setInput('stale', false);
+    await fixture.whenStable();
+    expect(el.querySelector('.ok')!.textContent).toContain('No problems');
+  });
+});

@@ -17,7 +17,9 @@ interface ProblemRow {
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <div class="head" id="nw-problems-head">
-      @if (errors() + warnings() === 0) {
+      @if (errors() + warnings() === 0 && stale()) {
+        <span class="old">No problems in an earlier version of the text</span>
+      } @else if (errors() + warnings() === 0) {
         <span class="ok"><span class="sym" aria-hidden="true">✓</span> No problems</span>
       } @else {
         <span class="count" [class.has-errors]="errors() > 0">
@@ -48,6 +50,7 @@ interface ProblemRow {
     :host { display: flex; flex-direction: column; min-height: 0; font-size: 0.875rem; }
     .head { padding: 4px 2px; color: var(--mat-sys-on-surface-variant); }
     .ok { color: #116340; }
+    .old { color: var(--mat-sys-on-surface-variant); font-style: italic; }
     .count.has-errors { color: #8c1d18; font-weight: 600; }
     .items { list-style: none; margin: 0; padding: 0; overflow: auto; min-height: 0; }
     .entry { display: grid; grid-template-columns: minmax(0, 1fr) auto; align-items: start; gap: 4px; }
@@ -63,6 +66,8 @@ interface ProblemRow {
 })
 export class ProblemsList {
   readonly diagnostics = input<readonly Diagnostic[]>([]);
+  /** The diagnostics belong to an earlier text (a cancelled solve): no green "No problems". */
+  readonly stale = input(false);
   /**
    * The text the diagnostics were found in, for the statement on each line. Without it the text
    * of the page's solver reply is used: the problems always come from that same reply.
