@@ -84,8 +84,9 @@ export function libraryRoutes(ds: DataSource, mailer: Mailer, publicUrl: string)
       summary: 'Resolve `use category/name@version` for the bench: the source, its state and the newest vetted version',
       params: VersionParams, errors: [403, 404],
       handle: async ({ params, user, res }) => {
-        // A version's source never changes once submitted: the browser may keep it (private: per user).
-        res.setHeader('Cache-Control', 'private, max-age=60');
+        // The source of a submitted version never changes, but its state does (vetted → retired) and
+        // so does the newest vetted version: the bench must hear of that on its next ask.
+        res.setHeader('Cache-Control', 'private, no-cache');
         return resolveUse(ds, user.id, params.slug, pathOf(params), params.version);
       },
     }),

@@ -18,7 +18,6 @@ export function shareRoutes(ds: DataSource, mailer: Mailer, publicUrl: string, s
       body: z.object({
         expiresAt: z.iso.datetime({ offset: true, error: 'must be an ISO 8601 date-time' }).transform((s) => new Date(s)).optional(),
         notify: z.array(Email).max(20, 'at most 20 addresses').optional(),
-        libraryPins: z.array(LibraryPin).max(200).optional(),
       }),
       response: z.object({ id: z.string(), url: z.string(), version: z.number().int(), expiresAt: z.string().nullable(), createdAt: z.string(), notified: z.array(z.string()) }),
       errors: [403, 404],
@@ -42,7 +41,7 @@ export function shareRoutes(ds: DataSource, mailer: Mailer, publicUrl: string, s
       summary: 'What a share link shows (no sign-in); 404 share_not_found, share_expired or share_revoked',
       params: z.object({ token: z.string().max(64) }),
       before: [sharedLimiter],
-      response: z.object({ name: z.string(), source: z.string(), version: z.number().int(), workspace: z.object({ name: z.string() }), author: z.object({ name: z.string() }), revisionCreatedAt: z.string(), sharedBy: z.object({ name: z.string() }), sharedAt: z.string(), expiresAt: z.string().nullable(), libraryPins: z.array(LibraryPin) }),
+      response: z.object({ name: z.string(), source: z.string(), version: z.number().int(), workspace: z.object({ name: z.string() }), author: z.object({ name: z.string() }), revisionCreatedAt: z.string(), sharedBy: z.object({ name: z.string() }), sharedAt: z.string(), expiresAt: z.string().nullable(), libraryPins: z.array(LibraryPin), library: z.array(LibraryPin.extend({ source: z.string() })) }),
       errors: [404, 429],
       handle: async ({ params, res }) => {
         // A shared page must not be kept by shared caches, and its address is a secret.

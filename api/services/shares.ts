@@ -8,6 +8,7 @@ import { netlistRights } from './access';
 import { audit } from './audit';
 import { forbidden, HttpError, notFound } from './http-error';
 import { sharedMail } from './mail-templates';
+import { pinnedSources, pinsOf } from './share-library';
 import type { Mailer } from './mailer';
 import { hashToken, looksLikeToken, newToken } from './tokens';
 import type { Person } from './users';
@@ -58,17 +59,20 @@ export async function createShare(
   publicUrl: string,
   actor: Person,
   netlistId: string,
-  body: { expiresAt?: Date; notify?: string[]; libraryPins?: LibraryPin[] },
+  body: { expiresAt?: Date; notify?: string[] },
 ): Promise<{ id: string; url: string; version: number; expiresAt: string | null; createdAt: string; notified: string[] }> {
   const n = await netlistFor(ds, actor.id, netlistId);
   if (!n.canShare) throw forbidden(`Sharing needs the designer role; yours is ${n.role}.`);
   if (body.expiresAt && body.expiresAt.getTime() <= Date.now()) throw new HttpError(400, 'invalid_request', 'The expiry must be in the future.', [{ path: 'body.expiresAt', message: 'must be in the future' }]);
   const token = newToken();
   const row = await ds.transaction(async (m) => {
+    // The library versions the shared revision uses, with the blocks they bring in.
+    const [rev]: { source: string }[] = await m.query(`SELECT source FROM netlist_revisions WHERE netlist_id = $1 AND version = $2`, [netlistId, n.version]);
+    const pins = await pinsOf(m, n.workspace_id, rev?.source ?? '');
     const [r] = await m.query(
       `INSERT INTO share_links (netlist_id, version, token_hash, created_by, expires_at, library_pins)
        VALUES ($1, $2, $3, $4, $5, $6) RETURNING id, created_at`,
-      [netlistId, n.version, hashToken(token), actor.id, body.expiresAt ?? null, JSON.stringify(body.libraryPins ?? [])],
+      [netlistId, n.version, hashToken(token), actor.id, body.expiresAt ?? null, JSON.stringify(pins)],
     );
     await audit(m, { workspaceId: n.workspace_id, actorId: actor.id, action: 'share.create', targetType: 'share_link', targetId: r.id, details: { netlist: netlistId, version: n.version, expiresAt: body.expiresAt?.toISOString() ?? null, notify: body.notify ?? [] } });
     return r as { id: string; created_at: Date };
@@ -139,8 +143,8 @@ export async function revokeShare(ds: DataSource, userId: string, shareId: strin
 export async function openShared(ds: DataSource, token: string) {
   const unknown = new HttpError(404, 'share_not_found', 'There is no shared netlist at this address.');
   if (!looksLikeToken(token)) throw unknown;
-  const rows: { id: string; version: number; created_at: Date; expires_at: Date | null; revoked_at: Date | null; library_pins: LibraryPin[]; name: string; deleted_at: Date | null; workspace: string; source: string; rev_at: Date; author: string; sharer: string }[] = await ds.query(
-    `SELECT s.id, s.version, s.created_at, s.expires_at, s.revoked_at, s.library_pins, n.name, n.deleted_at, w.name AS workspace,
+  const rows: { id: string; version: number; created_at: Date; expires_at: Date | null; revoked_at: Date | null; library_pins: LibraryPin[]; name: string; deleted_at: Date | null; workspace_id: string; workspace: string; source: string; rev_at: Date; author: string; sharer: string }[] = await ds.query(
+    `SELECT s.id, s.version, s.created_at, s.expires_at, s.revoked_at, s.library_pins, n.name, n.deleted_at, n.workspace_id, w.name AS workspace,
             r.source, r.created_at AS rev_at, a.display_name AS author, c.display_name AS sharer
      FROM share_links s JOIN netlists n ON n.id = s.netlist_id JOIN workspaces w ON w.id = n.workspace_id
      JOIN netlist_revisions r ON r.netlist_id = s.netlist_id AND r.version = s.version
@@ -165,5 +169,6 @@ export async function openShared(ds: DataSource, token: string) {
     sharedAt: new Date(s.created_at).toISOString(),
     expiresAt: s.expires_at ? new Date(s.expires_at).toISOString() : null,
     libraryPins: s.library_pins,
+    library: await pinnedSources(ds, s.workspace_id, s.library_pins),
   };
 }

@@ -33,15 +33,22 @@ const tokenOf = (url: string) => url.split('/s/')[1];
 describe('share links', () => {
   it('makes a link pinned to the current revision: later saves do not change what it shows', async () => {
     const id = await netlist('title Version one\n');
-    await ravi.put(`/api/netlists/${id}`, { source: 'title Version two\n', baseVersion: 1 });
-    const made = await ravi.post(`/api/netlists/${id}/shares`, { libraryPins: [{ path: 'mirrors/basic_npn', version: 1 }] });
+    const two = 'title Version two\nuse mirrors/wilson_npn@3\nuse nowhere/no_block@1\n';
+    await ravi.put(`/api/netlists/${id}`, { source: two, baseVersion: 1 });
+    const made = await ravi.post(`/api/netlists/${id}/shares`, {});
     expect(made.status).toBe(201);
     expect(made.body).toMatchObject({ version: 2, expiresAt: null, url: expect.stringMatching(new RegExp(`^${api.url}/s/[A-Za-z0-9_-]{22}$`)) });
     await ravi.put(`/api/netlists/${id}`, { source: 'title Version three\n', baseVersion: 2 });
     const anonymous = api.client();
     const shared = await anonymous.get(`/api/shared/${tokenOf(made.body.url)}`);
     expect(shared.status).toBe(200);
-    expect(shared.body).toMatchObject({ name: `Shared ${tag}`, source: 'title Version two\n', version: 2, workspace: { name: 'Strainlab sensor front end' }, author: { name: 'Ravi Lindqvist' }, sharedBy: { name: 'Ravi Lindqvist' }, libraryPins: [{ path: 'mirrors/basic_npn', version: 1 }] });
+    expect(shared.body).toMatchObject({ name: `Shared ${tag}`, source: two, version: 2, workspace: { name: 'Strainlab sensor front end' }, author: { name: 'Ravi Lindqvist' }, sharedBy: { name: 'Ravi Lindqvist' } });
+    // The pins are read from the revision by the server; the reader gets the sources it has (the
+    // seed Wilson mirror, vetted in the demo workspace), not the block the workspace lacks.
+    expect(shared.body.libraryPins).toEqual([{ path: 'mirrors/wilson_npn', version: 3 }, { path: 'nowhere/no_block', version: 1 }]);
+    expect(shared.body.library).toHaveLength(1);
+    expect(shared.body.library[0]).toMatchObject({ path: 'mirrors/wilson_npn', version: 3 });
+    expect(shared.body.library[0].source).toContain('block wilson_npn(in, out, rail)');
     expect(shared.headers.get('cache-control')).toBe('no-store');
   });
 

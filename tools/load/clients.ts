@@ -15,8 +15,9 @@ import { parentPort, workerData } from 'node:worker_threads';
 import { TeamClient } from '../../test/support/team-client';
 import { DEMO_PASSWORD } from '../../api/services/seed';
 import { dropAllConnections, dropIdleConnections, request } from './http';
+import { libraryReads } from './library-reads';
 import { netlistText } from './netlist-text';
-import { emptyPhase, record, type Outcome, type PhaseResult } from './tally';
+import { emptyPhase, record, type Kind, type Outcome, type PhaseResult } from './tally';
 
 export interface ClientsSetup {
   url: string;
@@ -27,12 +28,15 @@ export interface ClientsSetup {
 }
 export type ToClients = { type: 'run'; phase: string; seconds: number } | { type: 'stop' };
 export type FromClients =
-  | { type: 'ready'; signInMs: number; netlists: number }
+  | { type: 'ready'; signInMs: number; netlists: number; blocks: number }
   | { type: 'done'; result: PhaseResult }
   | { type: 'failed'; message: string };
 
 const WORKSPACE = 'strainlab';
 const ACCOUNTS = ['ravi@strainlab.example', 'ada@strainlab.example'];
+/** Of the clients' requests, the block library's reads (enough of each kind for a p99). */
+const LIBRARY_SHARE = 0.25;
+/** Of the rest, the netlist reads; the others are saves. */
 const READ_SHARE = 0.7;
 const SHARED_SAVE_SHARE = 0.15;
 const MAX_STALE_RETRIES = 5;
@@ -40,6 +44,7 @@ const MAX_STALE_RETRIES = 5;
 const FAILURE_PAUSE_MS = 250;
 
 const setup = workerData as ClientsSetup;
+const library = libraryReads(WORKSPACE);
 let stopping = false;
 
 interface Known {
@@ -74,8 +79,9 @@ class VirtualClient {
     if (!this.sid || !this.xsrf) throw new Error(`client ${this.index}: no session or XSRF cookie after sign-in`);
   }
 
-  /** One request with this client's cookies and a deadline; never throws. */
-  async send(phase: PhaseResult | undefined, kind: 'list' | 'one' | 'save', method: string, path: string, json?: unknown): Promise<Answer> {
+  /** One request with this client's cookies and a deadline; never throws. A 2xx whose body
+   *  fails `expect` is counted as `other` (`unexpected_answer`). */
+  async send(phase: PhaseResult | undefined, kind: Kind, method: string, path: string, json?: unknown, expect?: (body: any) => boolean): Promise<Answer> {
     const headers: Record<string, string> = { cookie: `nodewright.sid=${this.sid}; XSRF-TOKEN=${this.xsrf}` };
     if (method !== 'GET') headers['x-xsrf-token'] = decodeURIComponent(this.xsrf);
     if (json !== undefined) headers['content-type'] = 'application/json';
@@ -92,6 +98,7 @@ class VirtualClient {
       const body = (res.headers['content-type'] ?? '').includes('json') && res.text ? JSON.parse(res.text) : undefined;
       const s = res.status;
       answer = { outcome: s === 503 ? 'unavailable' : s >= 500 ? 'server_error' : (s >= 200 && s < 300) || s === 409 ? 'ok' : 'other', status: s, body };
+      if (expect && s >= 200 && s < 300 && !expect(body)) answer = { outcome: 'other', status: s, body: { error: { code: 'unexpected_answer' } } };
     } catch (err) {
       const e = err as Error & { code?: string };
       const outcome: Outcome = stopping ? 'aborted' : e.name === 'TimeoutError' ? 'timeout' : 'network';
@@ -151,7 +158,10 @@ async function loop(c: VirtualClient, phase: PhaseResult, until: number, ids: st
   await new Promise((done) => setTimeout(done, Math.random() * 1000));
   while (Date.now() < until && !stopping) {
     let r: Answer;
-    if (Math.random() < READ_SHARE) {
+    if (Math.random() < LIBRARY_SHARE) {
+      const read = library.next();
+      r = await c.send(phase, read.kind, 'GET', read.path, undefined, read.expect);
+    } else if (Math.random() < READ_SHARE) {
       if (Math.random() < 0.4) r = await c.send(phase, 'list', 'GET', `/api/workspaces/${WORKSPACE}/netlists?pageSize=50`);
       else r = await c.send(phase, 'one', 'GET', `/api/netlists/${pick(ids)}`);
     } else {
@@ -182,8 +192,14 @@ async function main(): Promise<void> {
     c.own = await c.createOwn(`Load client ${c.index}`);
   });
   const ids = [...shared, ...clients.map((c) => c.own)];
+  // The library reads need the seed blocks in the demo workspace of this database.
+  const whole = library.whole();
+  const listed = await clients[0].send(undefined, whole.kind, 'GET', whole.path);
+  const missing = library.missing(listed.body);
+  if (listed.status !== 200 || missing.length) throw new Error(`the catalogue of ${WORKSPACE} (${listed.status}) lacks seed blocks: ${missing.join(', ')}`);
+  if (!whole.expect(listed.body)) throw new Error(`the catalogue of ${WORKSPACE} lists more than the ${library.blocks} seed blocks`);
   for (const c of clients) for (const id of [c.own, ...shared]) c.known.set(id, { base: 1, unanswered: new Set() });
-  parentPort!.postMessage({ type: 'ready', signInMs, netlists: ids.length } satisfies FromClients);
+  parentPort!.postMessage({ type: 'ready', signInMs, netlists: ids.length, blocks: library.blocks } satisfies FromClients);
 
   parentPort!.on('message', (m: ToClients) => {
     if (m.type === 'stop') {

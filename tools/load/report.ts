@@ -2,7 +2,7 @@
  * The figures of a phase, as printed and as written to `test-results/load.json`.
  */
 import { availableParallelism } from 'node:os';
-import { summarize, type LatencySummary, type PhaseResult, type Second } from './tally';
+import { KINDS, LIBRARY_KINDS, summarize, type Kind, type LatencySummary, type PhaseResult, type Second } from './tally';
 import type { CpuFigures } from './cpu';
 import type { ServerSample } from './server';
 import type { Verification } from './verify';
@@ -20,6 +20,35 @@ export interface Outage {
   recovery: number | null;
 }
 
+/** The figures of one kind of request (or a group of kinds): `count` requests sent, answered or
+ *  not, `perSecond` of them over the phase, the latencies of those answered, and the failures. */
+export interface KindFigures extends LatencySummary {
+  perSecond: number;
+  errors: number;
+}
+
+/** The rows of the latency table: a kind, or a group of them, with its label (indent: nesting). */
+const GROUPS = {
+  all: KINDS,
+  reads: ['list', 'one'],
+  saves: ['save'],
+  library: LIBRARY_KINDS,
+  catalogueAll: ['catalogue', 'catalogueSearch', 'catalogueCategory', 'catalogueSearchCategory'],
+} as const satisfies Record<string, readonly Kind[]>;
+type Row = keyof typeof GROUPS | Kind;
+const ROWS: [Row, string][] = [
+  ['all', 'all'], ['reads', 'netlist reads'], ['list', '  list of 50'], ['one', '  one netlist'], ['saves', 'saves'],
+  ['library', 'library reads'], ['catalogueAll', '  catalogue'], ['catalogue', '    no filter'], ['catalogueSearch', '    q'],
+  ['catalogueCategory', '    category'], ['catalogueSearchCategory', '    q + category'], ['block', '  block page'],
+  ['version', '  one version'], ['use', '  use (bench)'],
+];
+/** The library rows of the summary at the end, with their labels there. */
+const LIBRARY_ROWS: [Row, string][] = [
+  ['catalogueAll', 'catalogue, all forms'], ['catalogue', 'catalogue, no filter'], ['catalogueSearch', 'catalogue ?q='],
+  ['catalogueCategory', 'catalogue ?category='], ['catalogueSearchCategory', 'catalogue ?q=&category='], ['block', 'block page'],
+  ['version', 'one version'], ['use', 'use (bench)'],
+];
+
 export interface PhaseFigures {
   name: string;
   /** When the phase began (ISO), to line the timeline up with the server's and PostgreSQL's logs. */
@@ -29,7 +58,8 @@ export interface PhaseFigures {
   perSecond: number;
   /** Saves answered 200 in this phase. */
   acknowledged: number;
-  latencyMs: { all: LatencySummary; reads: LatencySummary; list: LatencySummary; one: LatencySummary; saves: LatencySummary };
+  /** By kind of request and by group (`all`, `reads`: netlist reads, `saves`, `library`, `catalogueAll`). */
+  latencyMs: Record<Row, KindFigures>;
   statuses: Record<string, number>;
   errors: Record<string, number>;
   slowest: PhaseResult['slowest'];
@@ -53,13 +83,7 @@ export function figuresOf(p: PhaseResult, verification: Verification, server: Ph
     requests: p.requests,
     perSecond: round(p.requests / seconds),
     acknowledged: p.acks.length,
-    latencyMs: {
-      all: summarize([...p.latency.list, ...p.latency.one, ...p.latency.save]),
-      reads: summarize([...p.latency.list, ...p.latency.one]),
-      list: summarize(p.latency.list),
-      one: summarize(p.latency.one),
-      saves: summarize(p.latency.save),
-    },
+    latencyMs: Object.fromEntries(ROWS.map(([row]) => [row, kindFigures(p, row in GROUPS ? GROUPS[row as keyof typeof GROUPS] : [row as Kind], seconds)])) as Record<Row, KindFigures>,
     statuses: p.statuses,
     errors: p.errors,
     slowest: p.slowest,
@@ -74,15 +98,19 @@ export function figuresOf(p: PhaseResult, verification: Verification, server: Ph
   };
 }
 
+function kindFigures(p: PhaseResult, kinds: readonly Kind[], seconds: number): KindFigures {
+  const sum = (by: Record<Kind, number>) => kinds.reduce((n, k) => n + by[k], 0);
+  const latency = summarize(kinds.flatMap((k) => p.latency[k]));
+  return { ...latency, count: sum(p.sent), perSecond: round(sum(p.sent) / seconds), errors: sum(p.failed) };
+}
+
 const round = (v: number) => Math.round(v * 10) / 10;
 const pad = (s: string | number, n: number) => String(s).padStart(n);
 
 export function printPhase(f: PhaseFigures): void {
   console.log(`\n${f.name}: ${f.requests} requests in ${f.seconds} s = ${f.perSecond} requests/s`);
-  console.log('  latency ms        count     p50     p95     p99     max');
-  for (const [label, s] of [['all', f.latencyMs.all], ['reads', f.latencyMs.reads], ['  list', f.latencyMs.list], ['  one', f.latencyMs.one], ['saves', f.latencyMs.saves]] as const) {
-    console.log(`  ${label.padEnd(14)}${pad(s.count, 8)}${pad(s.p50, 8)}${pad(s.p95, 8)}${pad(s.p99, 8)}${pad(s.max, 8)}`);
-  }
+  console.log(`  ${'requests'.padEnd(18)}   count   req/s  p50 ms  p95 ms  p99 ms  max ms  errors`);
+  for (const [row, label] of ROWS) console.log(`  ${label.padEnd(18)}${kindLine(f.latencyMs[row])}`);
   console.log(`  statuses: ${Object.entries(f.statuses).sort().map(([k, n]) => `${k} ×${n}`).join(', ')}`);
   console.log(`  409 stale: ${f.stale} (on the client's own netlist: ${f.staleOwn}; ambiguous: ${f.ambiguous}), timeouts: ${f.timeouts}`);
   const errors = Object.entries(f.errors);
@@ -95,6 +123,8 @@ export function printPhase(f: PhaseFigures): void {
   for (const [name, p] of Object.entries(s.pools)) console.log(`  ${name}: ${p.acquired} connections handed out, at most ${p.waitingMax} requests waiting, longest wait ${p.waitMsMax} ms, ${p.waitsOver1s} waits over 1 s`);
   console.log(`  server: heap after full GC ${s.heapMb.start} → ${s.heapMb.end} MB (${s.heapMb.max} MB at most during the phase), process RSS max ${s.rssMbMax} MB, event-loop delay p99 ${s.loopDelayMs.p99} ms (max ${s.loopDelayMs.max}), load average ${s.loadAverage.join(' → ')}${s.crashed.length ? `, CRASHED: ${s.crashed.join('; ')}` : ''}`);
 }
+
+const kindLine = (s: KindFigures) => [s.count, s.perSecond, s.p50, s.p95, s.p99, s.max, s.errors].map((v) => pad(v, 8)).join('');
 
 export function printOutage(f: PhaseFigures): void {
   const o = f.outage!;
@@ -118,4 +148,7 @@ export function printSummary(phases: PhaseFigures[]): void {
   const line = (cells: string[]) => cells.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join('  ');
   console.log(`\n${line(head)}`);
   for (const r of rows) console.log(line(r));
+  const width = Math.max(...LIBRARY_ROWS.map(([, label]) => label.length)) + Math.max(...phases.map((f) => f.name.length)) + 2;
+  console.log(`\n${'library reads, phase'.padEnd(width)}   count   req/s  p50 ms  p95 ms  p99 ms  max ms  errors`);
+  for (const [row, label] of LIBRARY_ROWS) for (const f of phases) console.log(`${`${label}, ${f.name}`.padEnd(width)}${kindLine(f.latencyMs[row])}`);
 }

@@ -100,7 +100,7 @@ export async function runLoad(o: LoadOptions): Promise<number> {
     const fromClients = mailbox<FromClients>(clients, stopped);
     const ready = await fromClients.next();
     if (ready?.type !== 'ready') throw new Error(`the clients could not start: ${ready?.type === 'failed' ? ready.message : (fromClients.failure()?.message ?? stopReason)}`);
-    console.log(`${o.clients} clients signed in through the provider's form in ${(ready.signInMs / 1000).toFixed(1)} s; ${ready.netlists} netlists (${SHARED_NETLISTS} shared)`);
+    console.log(`${o.clients} clients signed in through the provider's form in ${(ready.signInMs / 1000).toFixed(1)} s; ${ready.netlists} netlists (${SHARED_NETLISTS} shared); the ${ready.blocks} seed blocks in the catalogue`);
 
     const dataDir = process.env.NODEWRIGHT_PG_DATA!;
     /** One phase with the server's and the machine's figures around it. */
@@ -123,7 +123,7 @@ export async function runLoad(o: LoadOptions): Promise<number> {
       return { result: m.result, cpu: cpuFigures, server: { heapMb: r.heapMb, rssMbMax: Math.round(rss / 1048576), pools: r.pools, loopDelayMs: r.loopDelayMs, loadAverage: load, crashed: [...crashes] } };
     };
 
-    console.log(`\nPhase 1: ${o.clients} clients, ${o.seconds} s, about 70 % reads / 30 % saves…`);
+    console.log(`\nPhase 1: ${o.clients} clients, ${o.seconds} s, about 25 % block library reads, 52 % netlist reads, 23 % saves…`);
     const steady = await runPhase('steady');
     if (!steady || stopReason) return 1;
     const v1 = await verifyIn(databaseUrl, steady.result.acks, steady.result.unanswered);

@@ -5,7 +5,14 @@
 
 /** How a request ended: answered (`ok` includes 409 stale, a normal answer), or not. */
 export type Outcome = 'ok' | 'unavailable' | 'server_error' | 'other' | 'timeout' | 'network' | 'aborted';
-export type Kind = 'list' | 'one' | 'save';
+/** The netlist requests: the list of 50, one netlist with its text, a save (`PUT`). */
+export const NETLIST_KINDS = ['list', 'one', 'save'] as const;
+/** The block library's reads: the catalogue (no filter, a `q` search, a category, both), the
+ *  block page, one version, and the bench resolving a `use` line (tools/load/library-reads.ts). */
+export const LIBRARY_KINDS = ['catalogue', 'catalogueSearch', 'catalogueCategory', 'catalogueSearchCategory', 'block', 'version', 'use'] as const;
+export const KINDS = [...NETLIST_KINDS, ...LIBRARY_KINDS] as const;
+export type LibraryKind = (typeof LIBRARY_KINDS)[number];
+export type Kind = (typeof KINDS)[number];
 
 export interface Second {
   ok: number;
@@ -31,6 +38,11 @@ export interface PhaseResult {
   requests: number;
   /** Latency in ms of every request that got an HTTP answer, by kind. */
   latency: Record<Kind, number[]>;
+  /** Requests sent, by kind, answered or not. */
+  sent: Record<Kind, number>;
+  /** Requests that failed, by kind: no answer, a 5xx, any status but 2xx and 409, or a 2xx
+   *  whose body was not what was asked for (`unexpected_answer`). */
+  failed: Record<Kind, number>;
   /** By HTTP status, or `timeout` / `network` / `aborted` when none came. */
   statuses: Record<string, number>;
   /** Error codes of 5xx answers and network failures, with counts. */
@@ -51,8 +63,10 @@ export interface PhaseResult {
   ambiguous: number;
 }
 
+const byKind = <T>(make: () => T) => Object.fromEntries(KINDS.map((k) => [k, make()])) as Record<Kind, T>;
+
 export function emptyPhase(name: string, startedAt: number): PhaseResult {
-  return { name, startedAt, endedAt: startedAt, requests: 0, latency: { list: [], one: [], save: [] }, statuses: {}, errors: {}, slowest: [], timeline: [], acks: [], unanswered: [], stale: 0, staleOwn: 0, ambiguous: 0 };
+  return { name, startedAt, endedAt: startedAt, requests: 0, latency: byKind(() => []), sent: byKind(() => 0), failed: byKind(() => 0), statuses: {}, errors: {}, slowest: [], timeline: [], acks: [], unanswered: [], stale: 0, staleOwn: 0, ambiguous: 0 };
 }
 
 export function record(p: PhaseResult, kind: Kind, status: number, outcome: Outcome, ms: number, at: number, code?: string): void {
@@ -60,6 +74,8 @@ export function record(p: PhaseResult, kind: Kind, status: number, outcome: Outc
   const key = status ? String(status) : outcome;
   p.statuses[key] = (p.statuses[key] ?? 0) + 1;
   if (status) p.latency[kind].push(ms);
+  p.sent[kind]++;
+  if (outcome !== 'ok' && outcome !== 'aborted') p.failed[kind]++;
   if (p.slowest.length < 10 || ms > p.slowest[p.slowest.length - 1].ms) {
     p.slowest.push({ kind, status, ...(code ? { code } : {}), at: Math.round((at - ms - p.startedAt) / 100) / 10, ms: Math.round(ms) });
     p.slowest.sort((a, b) => b.ms - a.ms).splice(10);

@@ -10,14 +10,19 @@
 import { afterNextRender, ChangeDetectionStrategy, Component, computed, effect, inject, Injector, input, untracked, viewChild } from '@angular/core';
 import { MatDialog } from '@angular/material/dialog';
 import { MatSnackBar, MatSnackBarModule } from '@angular/material/snack-bar';
+import { Router } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import type { Diagnostic } from '../../../solver';
 import { Session } from '../core/session';
 import type { Netlist, StaleCurrent } from '../core/team-api';
 import { BenchColumns } from './bench-columns';
 import { BenchStore } from './bench-store';
+import { blockAtCursor, definedBlocks, drivenNodes, suggestedPath, wrapAsBlock } from './block-proposal';
+import { BlockSources } from './block-sources';
+import { LibraryIndex } from './library-index';
 import { NetlistEditor, type EditorCommand } from './editor/netlist-editor';
 import { ProblemsList } from './editor/problems-list';
+import type { PinChange } from './library-notices';
 import { ShortcutsHelp } from './editor/shortcuts-help';
 import { EXAMPLES, exampleById, type Example } from './examples';
 import { DraftsDialog, type DraftsDialogData, type DraftsDialogResult } from './files/drafts-dialog';
@@ -26,6 +31,7 @@ import { ResultsPanels } from './results-panels';
 import { SolverClient } from './solver-client';
 import { ConflictDialog, type ConflictData } from './team/conflict-dialog';
 import { SaveToTeamDialog, type SaveToTeamData } from './team/save-to-team-dialog';
+import { BlockPinsDialog, type BlockPinsData, type BlockPinsResult } from './team/block-pins-dialog';
 import { ShareDialog, type ShareData, type ShareResult } from './team/share-dialog';
 import { BEFORE_CONFLICT, TeamSync, type ConflictChoice, type PushOutcome } from './team/team-sync';
 
@@ -41,12 +47,14 @@ export const PAINTED_MARK = 'nw-painted';
   template: `
     <nw-file-bar [title]="store.ownTitle()" [label]="store.label()" [status]="team.status()" [team]="teamBar()" [examples]="examples"
       (openExample)="openExample($event)" (drafts)="openDrafts()" (newNetlist)="store.newNetlist()" (openFile)="openFile($event)"
-      (download)="download()" (save)="save()" (solve)="store.solveNow()" (help)="help()" (saveToTeam)="saveToTeam()" (share)="share()" />
+      (download)="download()" (save)="save()" (solve)="store.solveNow()" (help)="help()" (saveToTeam)="saveToTeam()" (share)="share()"
+      (proposeBlock)="proposeBlock()" />
     <nw-bench-columns>
       <nw-netlist-editor netlist class="editor" [document]="store.document()" [diagnostics]="store.diagnostics()" [names]="store.names()"
         [reveal]="store.reveal()" label="Netlist editor" (textChange)="store.edit($event)" (command)="command($event)"
-        (fileDropped)="openFile($event)" (cursorLine)="store.cursorLine.set($event)" />
-      <nw-problems-list problems [diagnostics]="store.diagnostics()" [stale]="store.stale()" (selected)="goToProblem($event)" />
+        (fileDropped)="openFile($event)" (cursorLine)="store.cursorLine.set($event)"
+        [library]="libraryIndex.entries()" (libraryVersionsWanted)="libraryIndex.loadVersions($event)" />
+      <nw-problems-list problems [diagnostics]="store.diagnostics()" [stale]="store.stale()" (selected)="goToProblem($event)" (pinChange)="movePin($event)" />
       <nw-results-panels class="results" [result]="store.shown()" [text]="store.shownText()" [stale]="store.stale()" [errorCount]="store.errorCount()"
         [status]="client.status()" [slow]="client.slow()" [solveMs]="store.solveMs()" [failure]="client.failure()"
         (cancel)="client.cancel()" (lineSelected)="store.selectLine($event)" />
@@ -66,7 +74,12 @@ export class BenchPage {
   private readonly injector = inject(Injector);
   protected readonly team = inject(TeamSync);
   private readonly session = inject(Session);
+  private readonly blockSources = inject(BlockSources);
+  private readonly router = inject(Router);
+  /** The library's blocks and versions, for completing `use` lines. */
+  protected readonly libraryIndex = inject(LibraryIndex);
   private readonly fileBar = viewChild.required(FileBar);
+  private readonly editor = viewChild.required(NetlistEditor);
   protected readonly examples = EXAMPLES;
 
   /** `/bench?example=mirror-loaded` opens that demo. */
@@ -75,6 +88,8 @@ export class BenchPage {
   readonly netlist = input<string | undefined>();
   /** With `netlist`: `&version=N` opens revision N as a copy. */
   readonly version = input<string | undefined>();
+  /** `/bench?block=category/name@N` opens that library version's source (block and fixture) as a new draft. */
+  readonly block = input<string | undefined>();
 
   protected readonly teamBar = computed<TeamBar>(() => {
     const remote = this.store.remote();
@@ -87,10 +102,25 @@ export class BenchPage {
 
   constructor() {
     this.client.warmUp();
+    // `use` lines resolve from the workspace worked in; when it changes (sign-in, a switch), the
+    // text is solved again against that workspace's library.
+    let librarySlug: string | undefined | null = null;
+    effect(() => {
+      const slug = this.session.librarySlug();
+      if (slug === librarySlug) return;
+      const first = librarySlug === null;
+      librarySlug = slug;
+      untracked(() => {
+        this.client.useLibrary({ workspace: slug });
+        if (!first && this.store.source()) this.store.solveNow();
+      });
+    });
     afterNextRender(() => {
       const id = untracked(this.netlist);
       const asked = exampleById(untracked(this.example));
+      const block = untracked(this.block);
       if (id) void this.openTeam(id, untracked(this.version));
+      else if (block) void this.openBlock(block);
       else if (asked) void this.store.openExample(asked);
       else void this.store.restore(EXAMPLES[0]);
     });
@@ -147,12 +177,53 @@ export class BenchPage {
     }
   }
 
+  /** A library notice's "Use @N": the editor changes the line (one undoable edit) and the text is solved again. */
+  protected movePin(change: PinChange): void {
+    if (!this.editor().movePin(change)) this.tell(`Line ${change.line} no longer pins ${change.path}@${change.from}.`, 4000);
+  }
+
   protected goToProblem(d: Diagnostic): void {
     this.store.selectLine(d.line, d.col);
   }
 
   protected openExample(example: Example): void {
     void this.store.openExample(example);
+  }
+
+  /**
+   * "Propose block": the block at the cursor goes with its file (models and fixture); a netlist
+   * without blocks is first wrapped as one, with the pins the designer ticks. The propose dialog
+   * then takes over and, once sent, opens the new draft's block page.
+   */
+  protected async proposeBlock(): Promise<void> {
+    const slug = this.session.workspace()?.slug;
+    if (!slug) return;
+    const text = this.store.source();
+    const blocks = definedBlocks(text);
+    let source = text;
+    let path: string;
+    const at = blockAtCursor(blocks, this.store.cursorLine());
+    if (at) {
+      path = suggestedPath(at.name);
+    } else {
+      const names = this.store.names();
+      const nodes = names.nodes.filter((n) => n !== 'gnd' && n !== '0');
+      const data: BlockPinsData = { nodes, pins: drivenNodes(names.parts, text, nodes), name: suggestedPath(this.store.ownTitle()).split('/')[1] };
+      const chosen = await firstValueFrom(this.dialog.open<BlockPinsDialog, BlockPinsData, BlockPinsResult>(BlockPinsDialog, { data, maxWidth: '96vw' }).afterClosed());
+      if (!chosen) return;
+      source = wrapAsBlock(text, chosen.name, chosen.pins, new Map(names.parts.map((p) => [p.name, p.kind])));
+      path = suggestedPath(chosen.name);
+    }
+    const { openProposeBlockDialog } = await import('../library/propose-block-dialog');
+    await openProposeBlockDialog(this.dialog, this.router, { slug, source, path });
+  }
+
+  /** A library version's source as a new draft: the workspace's, else the seed library's. */
+  private async openBlock(ref: string): Promise<void> {
+    const source = await this.blockSources.read(ref);
+    if (source.ok) return this.store.openText(source.text, { label: `from ${ref}` });
+    this.tell(source.message, 8000);
+    await this.store.restore(EXAMPLES[0]);
   }
 
   protected async openFile(file: File): Promise<void> {

@@ -175,8 +175,13 @@ export class BenchStore {
 
   /** Opens an example as a new, not yet saved netlist (the current one is saved first). */
   async openExample(example: Example): Promise<void> {
+    await this.openText(example.text);
+  }
+
+  /** Opens a text as a new, not yet saved netlist (the current one is saved first). */
+  async openText(text: string, meta: ShownMeta = {}): Promise<void> {
     await this.flushSave();
-    this.show(example.text, undefined, undefined);
+    this.show(text, undefined, undefined, meta);
   }
 
   /** A blank netlist. */

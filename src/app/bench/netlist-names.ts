@@ -41,5 +41,6 @@ export function namesOf(text: string, resolveUse?: ParseOptions['resolveUse']): 
     parts: symbols.parts.map((name) => ({ name, kind: kinds.parts.get(name) ?? '' })),
     nodes: symbols.nodes,
     measures: kinds.measures,
+    uses: [],
   };
 }

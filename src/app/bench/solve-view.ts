@@ -12,6 +12,7 @@
 import { computed, type Signal } from '@angular/core';
 import type { Diagnostic, SolveResult } from '../../../solver';
 import type { SolverClient, SolveStatus } from './solver-client';
+import { libraryNotices } from './library-notices';
 import { NO_NAMES, type NetlistNames, type SolveReply } from './solver-protocol';
 
 /** Why the figures on screen are not the current text's. */
@@ -84,8 +85,10 @@ export class SolveView {
     // Most keystrokes change values, not diagnostics or names: keeping the same array (and object)
     // then spares the editor's lint and completion, and the problems list, a redo per keystroke.
     this.diagnostics = computed(() => {
-      const r = this.latest();
-      return r ? [...r.errors, ...r.warnings].sort((a, b) => a.line - b.line || a.col - b.col) : [];
+      const reply = client.reply();
+      if (!reply) return [];
+      const r = reply.result;
+      return [...r.errors, ...r.warnings, ...libraryNotices(reply.names.uses, reply.text)].sort((a, b) => a.line - b.line || a.col - b.col);
     }, { equal: sameData });
     this.errorCount = computed(() => this.latest()?.errors.length ?? 0);
     this.names = computed(() => client.reply()?.names ?? NO_NAMES, { equal: sameData });

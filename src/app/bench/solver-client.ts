@@ -18,7 +18,7 @@
  *  - a solve longer than SLOW_MS raises `slow`, for a progress indicator with a cancel button.
  */
 import { DestroyRef, inject, Injectable, InjectionToken, signal } from '@angular/core';
-import type { SolveReply, SolveRequest, WorkerMessage } from './solver-protocol';
+import type { LibraryContext, SolveReply, SolveRequest, WorkerMessage } from './solver-protocol';
 
 /** The part of a Worker the client uses (a fake stands in for it in unit tests). */
 export interface WorkerLike {
@@ -80,6 +80,8 @@ export class SolverClient {
   /** Spawn-to-ready time of the last worker that loaded, ms. */
   private loadMs: number | undefined;
   private disposed = false;
+  /** Where `use` lines resolve from; sent with every request. */
+  private library: LibraryContext = {};
 
   /** The newest reply (only ever for the newest text sent). */
   readonly reply = signal<SolveReply | undefined>(undefined);
@@ -113,6 +115,15 @@ export class SolverClient {
   solveNow(text: string): void {
     this.pendingText = text;
     this.flush();
+  }
+
+  /**
+   * Where `use` lines resolve from from now on: the signed-in workspace's library, or the sources
+   * a share link pins (see library-resolver.ts). Takes effect with the next solve; the caller
+   * solves again when the text's results depend on it.
+   */
+  useLibrary(context: LibraryContext): void {
+    this.library = context;
   }
 
   /** Another netlist is opened: its results must not fall back on the previous one's. */
@@ -150,7 +161,7 @@ export class SolverClient {
     this.status.set('solving');
     this.clearSlow();
     this.slowTimer = setTimeout(() => this.slow.set(true), SLOW_MS);
-    this.ensureActive().worker.postMessage({ type: 'solve', id: request.id, text });
+    this.ensureActive().worker.postMessage({ type: 'solve', id: request.id, text, library: this.library });
   }
 
   /**

@@ -1,7 +1,47 @@
 /**
  * Messages between the bench and its solver worker. Plain data only (structured clone).
  */
-import type { SolveResult } from '../../../solver';
+import type { BlockDoc, SolveResult } from '../../../solver';
+
+/** Where a `use`d block's source came from. */
+export type BlockOrigin =
+  /** The signed-in workspace's library, through the API. */
+  | 'workspace'
+  /** The seed library shipped with the app (`library/`). */
+  | 'seed'
+  /** The IndexedDB copy kept from an earlier fetch (the server could not be asked). */
+  | 'cache'
+  /** The source pinned in the share link being read. */
+  | 'share';
+
+/** Library states of a block version (the server's vocabulary). */
+export type UsedBlockState = 'draft' | 'in_review' | 'vetted' | 'retired';
+
+/** One `use path@version` line of the solved text, as the worker resolved it. */
+export interface UsedBlock {
+  /** 1-based line of the `use` statement in the solved text (0 when it came through another block file). */
+  line: number;
+  path: string;
+  version: number;
+  /** Where the source came from; absent when it could not be resolved (the solver reports why). */
+  origin?: BlockOrigin;
+  /** The version's state in its library (seed blocks are vetted). */
+  state?: UsedBlockState;
+  /** The newest vetted version of the block, when known: a newer one than `version` is worth a warning. */
+  newestVetted?: number | null;
+  /** The doc comments and headers of the blocks the file defines (pins and params with their docs). */
+  docs: BlockDoc[];
+}
+
+/** What the editor completes `use` lines from: the library's blocks and their versions. */
+export interface LibraryEntry {
+  path: string;
+  title: string;
+  summary: string;
+  /** Versions a netlist may pin, newest first, with their states. */
+  versions: { version: number; state: UsedBlockState }[];
+  origin: 'workspace' | 'seed';
+}
 
 /** What the editor completes from: the names a netlist defines, as the parser saw them. */
 export interface NetlistNames {
@@ -17,9 +57,26 @@ export interface NetlistNames {
   nodes: string[];
   /** Measure names. */
   measures: string[];
+  /** The text's `use` lines as resolved, in text order. */
+  uses: UsedBlock[];
 }
 
-export const NO_NAMES: NetlistNames = { models: [], blocks: [], params: [], parts: [], nodes: [], measures: [] };
+export const NO_NAMES: NetlistNames = { models: [], blocks: [], params: [], parts: [], nodes: [], measures: [], uses: [] };
+
+/** A block version's source pinned by a share link. */
+export interface PinnedBlock {
+  path: string;
+  version: number;
+  source: string;
+}
+
+/** Where `use` lines resolve from (see library-resolver.ts). */
+export interface LibraryContext {
+  /** The signed-in workspace's slug: its library is asked first. */
+  workspace?: string;
+  /** Sources pinned by the share link being read: they win over everything else. */
+  pinned?: PinnedBlock[];
+}
 
 /** Bench → worker. */
 export interface SolveRequest {
@@ -30,6 +87,8 @@ export interface SolveRequest {
    */
   id: number;
   text: string;
+  /** Where its `use` lines resolve from; none: the seed library only. */
+  library?: LibraryContext;
 }
 
 /** Worker → bench. */

@@ -6,10 +6,11 @@
  * shows only the newest text's result anyway. A solve, once started, runs to the end; the bench
  * terminates this worker when that is not worth waiting for.
  */
-import { solveNetlist } from '../../../solver';
+import { readBlockDocs, solveNetlist } from '../../../solver';
+import { openBlockCache } from './block-cache';
+import { LibraryResolver, usesOf } from './library-resolver';
 import { namesOf } from './netlist-names';
-import { SeedLibrary } from './seed-library';
-import type { SolveReply, SolveRequest, WorkerMessage } from './solver-protocol';
+import type { SolveReply, SolveRequest, UsedBlock, WorkerMessage } from './solver-protocol';
 
 /** The worker's global scope, typed by what is used (the app compiles against the DOM library). */
 interface WorkerScope {
@@ -18,8 +19,8 @@ interface WorkerScope {
 }
 const scope = self as unknown as WorkerScope;
 
-/** The seed block library shipped with the app, beside the worker script. */
-const library = new SeedLibrary(new URL('library/', self.location.href));
+/** The team library through the API, this browser's copies, and the seed library shipped beside the worker script. */
+const library = new LibraryResolver(new URL('library/', self.location.href), new URL('/api/', self.location.href), openBlockCache());
 
 /** The newest request not started yet. */
 let waiting: SolveRequest | undefined;
@@ -41,14 +42,36 @@ async function drain(): Promise<void> {
     const request = waiting;
     waiting = undefined;
     const started = performance.now();
-    await library.preload(request.text);
+    await library.preload(request.text, request.library ?? {});
     if (waiting) continue; // superseded while its library blocks were fetched
     const result = solveNetlist(request.text, { resolveUse: library.resolve });
-    const reply: SolveReply = { type: 'solved', id: request.id, result, text: request.text, names: namesOf(request.text, library.resolve), solveMs: performance.now() - started };
+    const names = { ...namesOf(request.text, library.resolve), uses: usedBlocks(request.text) };
+    const reply: SolveReply = { type: 'solved', id: request.id, result, text: request.text, names, solveMs: performance.now() - started };
     scope.postMessage(reply);
     await new Promise((resolve) => setTimeout(resolve, 0)); // let requests sent during the solve arrive
   }
   draining = false;
+}
+
+/** The text's own `use` lines with what the resolver found for each. */
+function usedBlocks(text: string): UsedBlock[] {
+  return usesOf(text).map(({ path, version, line }) => {
+    const block = library.lookup(path, version);
+    if (!block) return { line, path, version, docs: [] };
+    return { line, path, version, origin: block.origin, state: block.state, newestVetted: block.newestVetted, docs: docsOf(block.source) };
+  });
+}
+
+/** Block docs by source: a source is read once per worker (sources of a version never change). */
+const docsBySource = new Map<string, ReturnType<typeof readBlockDocs>>();
+function docsOf(source: string): ReturnType<typeof readBlockDocs> {
+  let docs = docsBySource.get(source);
+  if (!docs) {
+    docs = readBlockDocs(source);
+    if (docsBySource.size > 256) docsBySource.clear();
+    docsBySource.set(source, docs);
+  }
+  return docs;
 }
 
 scope.postMessage({ type: 'ready' });

@@ -41,6 +41,15 @@ export class Session {
     return all.find((w) => w.slug === this.chosenSlug()) ?? all[0];
   });
   readonly role = computed<Role | undefined>(() => this.workspace()?.role);
+  /**
+   * The workspace whose library the bench resolves `use` lines from: the one worked in; before the
+   * server has answered, or while it cannot be reached, the one worked in last in this browser
+   * (its blocks then come from this browser's copies). Signed out: none.
+   */
+  readonly librarySlug = computed<string | undefined>(() => {
+    if (this.state() === 'signed-out') return undefined;
+    return this.workspace()?.slug ?? (this.me() ? undefined : this.chosenSlug() ?? undefined);
+  });
   readonly canWrite = computed(() => roleAtLeast(this.role(), 'designer'));
   readonly isAdmin = computed(() => roleAtLeast(this.role(), 'admin'));
 
@@ -51,6 +60,9 @@ export class Session {
       (me) => {
         this.me.set(me);
         this.state.set('signed-in');
+        // Remembered so that the next visit resolves library blocks before (or without) the server's answer.
+        const slug = this.workspace()?.slug;
+        if (slug && slug !== this.chosenSlug()) this.chooseWorkspace(slug);
         return me;
       },
       (err) => {

@@ -69,7 +69,10 @@ export interface SharedNetlist {
   sharedBy: { name: string };
   sharedAt: string;
   expiresAt: string | null;
+  /** The library versions the revision uses (nested uses included), read by the server. */
   libraryPins: LibraryPin[];
+  /** The sources of those the workspace holds frozen: the reader resolves `use` lines from them. */
+  library: (LibraryPin & { source: string })[];
 }
 
 export interface Member { userId: string; name: string; email: string; role: Role; joinedAt: string }
@@ -162,7 +165,7 @@ export class TeamApi {
   }
 
   // Shares
-  createShare(id: string, body: { expiresAt?: string; notify?: string[]; libraryPins?: LibraryPin[] }): Promise<CreatedShare> {
+  createShare(id: string, body: { expiresAt?: string; notify?: string[] }): Promise<CreatedShare> {
     return firstValueFrom(this.http.post<CreatedShare>(`/api/netlists/${enc(id)}/shares`, body));
   }
   shares(id: string): Promise<Items<ShareLink>> {

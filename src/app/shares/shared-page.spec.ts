@@ -44,6 +44,7 @@ const SHARED: SharedNetlist = {
   sharedAt: '2026-03-12T10:00:00Z',
   expiresAt: null,
   libraryPins: [],
+  library: [],
 };
 
 describe('SharedPage', () => {

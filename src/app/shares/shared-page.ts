@@ -147,6 +147,8 @@ export class SharedPage {
       this.load.set({ kind: 'shown', shared });
       this.title.setTitle(`${shared.name} · Shared netlist · Nodewright`);
       this.client.forgetLastSolved();
+      // The blocks the sharer's figures came from, whoever reads (signed in or not).
+      this.client.useLibrary({ pinned: shared.library });
       this.client.solveNow(shared.source);
     } catch (err) {
       const e = apiErrorOf(err);

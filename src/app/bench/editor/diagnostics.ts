@@ -7,6 +7,7 @@ import type { Diagnostic as LintDiagnostic } from '@codemirror/lint';
 import type { Text } from '@codemirror/state';
 import type { Diagnostic } from '../../../../solver';
 import { syntaxSection } from '../../reference/syntax-anchors';
+import { applyPinChange, pinChangeOf } from './pin-change';
 
 /** Document range of a solver diagnostic: its columns, else the word at its column, else the line. */
 export function rangeOf(doc: Text, d: Pick<Diagnostic, 'line' | 'col' | 'endCol'>): { from: number; to: number } {
@@ -33,8 +34,16 @@ export function toLintDiagnostics(doc: Text, diagnostics: readonly Diagnostic[])
       severity: d.severity === 'error' ? 'error' : 'warning',
       message: d.hint ? `${d.message} Hint: ${d.hint}.` : d.message,
       renderMessage: () => renderMessage(d, lineText(doc, d.line)),
+      ...pinActions(d),
     };
   });
+}
+
+/** A library notice's one-click pin change, as a button in its tooltip. */
+function pinActions(d: Diagnostic): Pick<LintDiagnostic, 'actions'> {
+  const change = pinChangeOf(d);
+  if (!change) return {};
+  return { actions: [{ name: `Use @${change.to}`, apply: (view) => void applyPinChange(view, change) }] };
 }
 
 /** The text of a diagnostic's line, when the document has it. */

@@ -145,6 +145,7 @@ describe('completionsFor', () => {
     parts: [{ name: 'q1', kind: 'npn' }, { name: 'va', kind: 'vsrc' }, { name: 'rc1', kind: 'res' }],
     nodes: ['vcc', 'outa', 'tail', 'm1.x'],
     measures: ['a0'],
+    uses: [],
   };
   const labels = (before: string) => (completionsFor(before, names) ?? []).map((c) => c.label);
 

@@ -1,6 +1,7 @@
 /**
  * The netlist editor: CodeMirror 6 with the Nodewright language, the solver's diagnostics inline,
- * completion from the netlist's own names, bracket matching, undo and line numbers.
+ * completion from the netlist's own names and the block library, block help on hover, bracket
+ * matching, undo and line numbers.
  *
  * It owns no netlist state: a new `document` (new key) replaces the text and its undo history;
  * every edit goes out through `textChange`. Shortcuts that belong to the bench (solve, save,
@@ -14,11 +15,15 @@ import { lintGutter, lintKeymap, setDiagnostics } from '@codemirror/lint';
 import { EditorState, type Extension } from '@codemirror/state';
 import { drawSelection, EditorView, highlightActiveLine, highlightActiveLineGutter, keymap, lineNumbers, placeholder } from '@codemirror/view';
 import type { Diagnostic } from '../../../../solver';
-import { NO_NAMES, type NetlistNames } from '../solver-protocol';
+import { NO_NAMES, type LibraryEntry, type NetlistNames } from '../solver-protocol';
 import { netlistCompletion } from './completion';
 import { toLintDiagnostics } from './diagnostics';
 import { editorTheme } from './editor-theme';
+import { continuesWithVersions, libraryCompletion, refreshVersionCompletion } from './library-completion';
+import { libraryHover } from './library-hover';
 import { nodewright } from './nodewright-language';
+import type { PinChange } from '../library-notices';
+import { applyPinChange } from './pin-change';
 
 /** A whole document to show; a new key means a new document (fresh undo history). */
 export interface EditorDocument {
@@ -57,6 +62,8 @@ export class NetlistEditor {
   readonly document = input.required<EditorDocument>();
   readonly diagnostics = input<readonly Diagnostic[]>([]);
   readonly names = input<NetlistNames>(NO_NAMES);
+  /** The blocks `use` lines may name (LibraryIndex.entries()). */
+  readonly library = input<readonly LibraryEntry[]>([]);
   readonly reveal = input<RevealRequest | undefined>(undefined);
   /** Accessible name of the text area. */
   readonly label = input('Netlist');
@@ -71,6 +78,8 @@ export class NetlistEditor {
   readonly fileDropped = output<File>();
   /** The line the cursor is on (1-based), as it moves. */
   readonly cursorLine = output<number>();
+  /** Completion is offering the versions of this library path: fetch its full list (LibraryIndex.loadVersions). */
+  readonly libraryVersionsWanted = output<string>();
 
   protected readonly dragging = signal(false);
   private readonly host = viewChild.required<ElementRef<HTMLElement>>('host');
@@ -117,11 +126,22 @@ export class NetlistEditor {
       const reveal = this.reveal();
       if (view && reveal) this.goTo(view, reveal.line, reveal.col);
     });
+    effect(() => {
+      this.library();
+      const view = untracked(this.view);
+      if (view) refreshVersionCompletion(view);
+    });
   }
 
   /** The text now in the editor. */
   text(): string {
     return this.view()?.state.doc.toString() ?? untracked(this.document).text;
+  }
+
+  /** Moves a `use` line's pin (one undoable edit); false when that line no longer pins the old version. */
+  movePin(change: PinChange): boolean {
+    const view = this.view();
+    return !!view && applyPinChange(view, change);
   }
 
   focus(): void {
@@ -174,7 +194,12 @@ export class NetlistEditor {
       highlightActiveLine(),
       lintGutter(),
       nodewright(),
-      autocompletion({ override: [netlistCompletion(() => untracked(this.names))], icons: false }),
+      autocompletion({
+        override: [netlistCompletion(() => untracked(this.names)), libraryCompletion(() => untracked(this.library), (path) => this.libraryVersionsWanted.emit(path))],
+        activateOnCompletion: continuesWithVersions,
+        icons: false,
+      }),
+      libraryHover(() => untracked(this.names), () => untracked(this.library)),
       readOnly ? [] : placeholder('Write a netlist here, or pick an example from the menu above.'),
       keymap.of([
         { key: 'Mod-Enter', run: run('solve'), preventDefault: true },

@@ -5,11 +5,14 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, output } from '@angular/core';
 import type { Diagnostic } from '../../../../solver';
 import { syntaxSection, type SyntaxEntry } from '../../reference/syntax-anchors';
+import type { PinChange } from '../library-notices';
 import { SolverClient } from '../solver-client';
+import { pinChangeOf } from './pin-change';
 
 interface ProblemRow {
   d: Diagnostic;
   syntax: SyntaxEntry;
+  change?: PinChange;
 }
 
 @Component({
@@ -39,6 +42,10 @@ interface ProblemRow {
                 @if (row.d.hint) { <span class="hint">Hint: {{ row.d.hint }}</span> }
               </span>
             </button>
+            @if (row.change; as change) {
+              <button type="button" class="pin" (click)="pinChange.emit(change)"
+                [attr.aria-label]="'Pin ' + change.path + ' at version ' + change.to + ' instead of ' + change.from">Use &#64;{{ change.to }}</button>
+            }
             <a class="syntax" [href]="'/reference#' + row.syntax.anchor" target="_blank" rel="noopener"
               [title]="'The syntax of ' + row.syntax.topic + ' in the language reference'">Syntax<span class="cdk-visually-hidden"> of {{ row.syntax.topic }} (opens in a new tab)</span></a>
           </li>
@@ -53,8 +60,10 @@ interface ProblemRow {
     .old { color: var(--mat-sys-on-surface-variant); font-style: italic; }
     .count.has-errors { color: #8c1d18; font-weight: 600; }
     .items { list-style: none; margin: 0; padding: 0; overflow: auto; min-height: 0; }
-    .entry { display: grid; grid-template-columns: minmax(0, 1fr) auto; align-items: start; gap: 4px; }
-    .syntax { padding: 3px 6px; font-size: 0.8125rem; white-space: nowrap; }
+    .entry { display: grid; grid-template-columns: minmax(0, 1fr) auto auto; align-items: start; gap: 4px; }
+    .pin { grid-column: 2; padding: 2px 8px; font: inherit; font-size: 0.8125rem; white-space: nowrap; cursor: pointer;
+      border: 1px solid var(--mat-sys-outline); border-radius: 4px; background: var(--mat-sys-surface); color: var(--mat-sys-primary); }
+    .syntax { grid-column: 3; padding: 3px 6px; font-size: 0.8125rem; white-space: nowrap; }
     .item { display: grid; grid-template-columns: 82px 58px 1fr; gap: 6px; width: 100%; text-align: left; border: 0;
       background: transparent; color: var(--mat-sys-on-surface); font: inherit; padding: 3px 4px; border-radius: 4px; cursor: pointer; }
     .item:hover { background: var(--mat-sys-surface-container); }
@@ -74,12 +83,14 @@ export class ProblemsList {
    */
   readonly text = input<string>();
   readonly selected = output<Diagnostic>();
+  /** The one-click pin change a library notice offers was asked for. */
+  readonly pinChange = output<PinChange>();
   private readonly client = inject(SolverClient, { optional: true });
 
   private readonly lines = computed(() => (this.text() ?? this.client?.reply()?.text ?? '').split('\n'));
   protected readonly rows = computed<ProblemRow[]>(() => {
     const lines = this.lines();
-    return this.diagnostics().map((d) => ({ d, syntax: syntaxSection(d, lines[d.line - 1]) }));
+    return this.diagnostics().map((d) => ({ d, syntax: syntaxSection(d, lines[d.line - 1]), change: pinChangeOf(d) }));
   });
   protected readonly errors = computed(() => this.diagnostics().filter((d) => d.severity === 'error').length);
   protected readonly warnings = computed(() => this.diagnostics().length - this.errors());

@@ -60,6 +60,9 @@ const NO_TEAM: TeamBar = { signedIn: false, canCreate: false };
         } @else if (team().canCreate) {
           <button mat-stroked-button type="button" (click)="saveToTeam.emit()" matTooltip="Keep this netlist on the team server, with every save as a version">Save to team</button>
         }
+        @if (team().canCreate) {
+          <button mat-button type="button" (click)="proposeBlock.emit()" matTooltip="Offer the block at the cursor (or this netlist as a block) to the team library for review">Propose block</button>
+        }
         <span class="sep" aria-hidden="true"></span>
       }
       <button mat-flat-button type="button" (click)="solve.emit()" [matTooltip]="'Solve now (' + mod + '+Enter)'" aria-label="Solve now">Solve</button>
@@ -105,6 +108,7 @@ export class FileBar {
   readonly help = output<void>();
   readonly saveToTeam = output<void>();
   readonly share = output<void>();
+  readonly proposeBlock = output<void>();
 
   protected readonly mod = typeof navigator !== 'undefined' && /Mac|iPhone|iPad/.test(navigator.platform) ? '⌘' : 'Ctrl';
   private readonly file = viewChild.required<ElementRef<HTMLInputElement>>('file');

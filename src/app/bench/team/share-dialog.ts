@@ -15,7 +15,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { TeamApi, type CreatedShare } from '../../core/team-api';
 import { refusalText } from './save-to-team-dialog';
-import { EXPIRY_CHOICES, expiryOf, libraryPinsOf, parseEmails, shortDate, type ExpiryChoice } from './share-options';
+import { EXPIRY_CHOICES, expiryOf, parseEmails, shortDate, type ExpiryChoice } from './share-options';
 import { ShareLinks } from './share-links';
 
 export interface ShareData {
@@ -190,11 +190,9 @@ export class ShareDialog {
     this.busy.set(true);
     this.problem.set(undefined);
     try {
-      const pins = libraryPinsOf(this.data.savedText);
       const created = await this.api.createShare(this.data.netlistId, {
         ...(expiry.expiresAt ? { expiresAt: expiry.expiresAt } : {}),
         ...(this.emails().length ? { notify: this.emails() } : {}),
-        ...(pins.length ? { libraryPins: pins } : {}),
       });
       this.url.set(new URL(created.url, location.origin).href);
       this.created.set(created);

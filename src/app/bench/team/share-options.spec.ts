@@ -1,4 +1,4 @@
-import { expiresText, expiryOf, libraryPinsOf, openedText, parseEmails } from './share-options';
+import { expiresText, expiryOf, openedText, parseEmails } from './share-options';
 
 describe('share options', () => {
   // 12 March 2026, 15:30 in the test's own time zone.
@@ -31,13 +31,6 @@ describe('share options', () => {
     });
     expect(parseEmails('  ')).toEqual({ valid: [], invalid: [] });
     expect(parseEmails('a@b').invalid).toEqual(['a@b']);
-  });
-
-  it('records the library versions the text pins, once each', () => {
-    expect(libraryPinsOf('title x\nuse amp/pair@2\n  use amp/pair@2\nuse refs/bandgap@1\n# use no/such@9 in a comment\n')).toEqual([
-      { path: 'amp/pair', version: 2 },
-      { path: 'refs/bandgap', version: 1 },
-    ]);
   });
 
   it('says how often a link was opened', () => {

@@ -4,7 +4,6 @@
  */
 import type { LibraryPin, ShareLink } from '../../core/team-api';
 import { timeAgo } from '../time-ago';
-import { USE_LINE } from '../seed-library';
 
 export type ExpiryChoice = 'never' | '1d' | '7d' | '30d' | 'date';
 
@@ -53,13 +52,6 @@ export function parseEmails(text: string): { valid: string[]; invalid: string[] 
     (isEmail(address) ? valid : invalid).push(address);
   }
   return { valid, invalid };
-}
-
-/** The library blocks the text's own `use` lines pin, once each, in order (for the link's record). */
-export function libraryPinsOf(text: string): LibraryPin[] {
-  const pins = new Map<string, LibraryPin>();
-  for (const m of text.matchAll(USE_LINE)) pins.set(`${m[1]}@${m[2]}`, { path: m[1], version: Number(m[2]) });
-  return [...pins.values()];
 }
 
 /** "not opened yet", "opened once, 5 min ago", "opened 3 times, last 5 min ago". */
