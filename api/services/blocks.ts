@@ -81,6 +81,12 @@ export async function blockByPath(m: EntityManager | DataSource, workspaceId: st
 
 export async function listBlocks(ds: DataSource, userId: string, slug: string, q: CatalogueQuery): Promise<{ items: BlockSummary[]; total: number }> {
   const ws = await workspaceFor(ds, slug, userId, 'viewer');
+  const items = await catalogueRows(ds, ws.id, q);
+  return { total: items.length, items };
+}
+
+/** The catalogue rows of a workspace that match `q` (one statement). */
+async function catalogueRows(ds: DataSource, workspaceId: string, q: CatalogueQuery): Promise<BlockSummary[]> {
   const like = `%${(q.q ?? '').trim().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
   const rows: { id: string; path: string; category: string; title: string; summary: string; tags: string[]; latest_version: number; latest_state: BlockState; vetted: number | null; versions: number; updated_at: Date }[] = await ds.query(
     `SELECT b.id, b.path, b.category, b.title, b.summary, b.tags,
@@ -97,15 +103,12 @@ export async function listBlocks(ds: DataSource, userId: string, slug: string, q
        AND ($5::text IS NULL OR $5 = ANY (b.tags))
        AND ($6::text IS NULL OR b.path = $6)
      ORDER BY b.path`,
-    [ws.id, like, q.category ?? null, q.state ?? null, q.tag ?? null, q.path ?? null],
+    [workspaceId, like, q.category ?? null, q.state ?? null, q.tag ?? null, q.path ?? null],
   );
-  return {
-    total: rows.length,
-    items: rows.map((r) => ({
-      id: r.id, path: r.path, category: r.category, title: r.title, summary: r.summary, tags: r.tags,
-      latest: { version: r.latest_version, state: r.latest_state }, vetted: r.vetted, versions: r.versions, updatedAt: iso(r.updated_at)!,
-    })),
-  };
+  return rows.map((r) => ({
+    id: r.id, path: r.path, category: r.category, title: r.title, summary: r.summary, tags: r.tags,
+    latest: { version: r.latest_version, state: r.latest_state }, vetted: r.vetted, versions: r.versions, updatedAt: iso(r.updated_at)!,
+  }));
 }
 
 interface VersionRow {
@@ -147,10 +150,11 @@ function versionSummary(r: VersionRow): VersionSummary {
 }
 
 export async function getBlock(ds: DataSource, userId: string, slug: string, path: string): Promise<BlockSummary & { versionsList: VersionSummary[] }> {
+  // Three statements: the membership, the block's catalogue row, its versions.
   const ws = await workspaceFor(ds, slug, userId, 'viewer');
-  const block = await blockByPath(ds, ws.id, path);
-  const [summary] = (await listBlocks(ds, userId, slug, { path })).items;
-  const rows: VersionRow[] = await ds.query(`${VERSION_SELECT} WHERE v.block_id = $1 ORDER BY v.version DESC`, [block.id]);
+  const [summary] = await catalogueRows(ds, ws.id, { path });
+  if (!summary) throw new HttpError(404, 'block_not_found', `The library has no block \`${path}\`.`);
+  const rows: VersionRow[] = await ds.query(`${VERSION_SELECT} WHERE v.block_id = $1 ORDER BY v.version DESC`, [summary.id]);
   return { ...summary, versionsList: rows.map(versionSummary) };
 }
 

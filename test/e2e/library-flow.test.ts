@@ -61,7 +61,7 @@ end
 title  Divider by two, driven from 2 V
 vin: vsrc(top, gnd) 2
 d1: half_divider(in=top, out=mid, rail=gnd)
-measure ratio = v(mid) / 2
+measure ratio = v(mid) / v(top)
 check ratio = 0.5 ± 0.1%
 `;
 
@@ -98,16 +98,27 @@ describe('the block library, from proposal to use', { timeout: 180_000 }, () => 
   });
 
   it('a reviewer vets it from the queue after their browser re-solved its checks', async () => {
+    const mei = await apiAs('mei@strainlab.example');
+    const comment = await mei.post('/api/workspaces/strainlab/blocks/blocks/half_divider/versions/1/review', { decision: 'comment', comments: [{ line: 13, text: 'ra and rb at 10k load the source with 50 µA at 1 V: fine for a reference, state it in the summary.' }] });
+    expect(comment.status).toBe(200);
     const reviewer = await (await freshBrowser()).context.newPage();
     await signInThroughPage(reviewer, url, 'mei@strainlab.example', '/library/queue');
+    await reviewer.getByRole('link', { name: 'Review blocks/half_divider version 1' }).waitFor();
+    await shotBoth(reviewer, 'library-queue');
     await reviewer.getByRole('link', { name: 'Review blocks/half_divider version 1' }).click();
     await reviewer.waitForURL(/\/library\/blocks\/half_divider\/1$/);
     // The reviewer's own solve of the check, beside the author's: both pass.
-    await expect.poll(() => reviewer.locator('nw-block-checks').textContent(), { timeout: 20_000 }).toMatch(/pass/i);
+    await expect.poll(() => reviewer.locator('nw-block-checks .summary').textContent(), { timeout: 30_000 }).toContain('every check agrees with the author');
     await shotBoth(reviewer, 'library-review');
     await reviewer.getByRole('button', { name: 'Approve: vetted' }).click();
-    const mei = await apiAs('mei@strainlab.example');
     await expect.poll(async () => (await mei.get('/api/workspaces/strainlab/blocks/blocks/half_divider/versions/1')).body.state, { timeout: 15_000 }).toBe('vetted');
+    await expect.poll(() => reviewer.locator('h1').first().textContent()).toMatch(/blocks\/half_divider.*vetted/i);
+    await reviewer.evaluate(() => window.scrollTo(0, 0));
+    await shotBoth(reviewer, 'library-block-vetted');
+    // The catalogue lists it beside the seed blocks, vetted.
+    await reviewer.goto(`${url}/library`);
+    await reviewer.getByRole('link', { name: 'blocks/half_divider' }).first().waitFor();
+    await shotBoth(reviewer, 'library-catalogue');
   });
 
   it('the designer uses it by version in a new netlist and reads the figure its check expects', async () => {
