@@ -3,9 +3,12 @@
  *
  *   parseNetlist(text, { resolveUse })  → circuit, requests, diagnostics, symbols
  *   solveNetlist(text, { resolveUse })  → the §5 result object (never throws)
+ *   solveWithOutline(text, { resolveUse }) → { result, outline }: the same result and, from the same
+ *                                           parse, the outline the editor needs
  *   formatReport(result)                → the readable text report
  */
-export { solveNetlist, solveCircuit, type SolveOptions, type CircuitRun } from './solve';
+export { solveNetlist, solveWithOutline, solveCircuit, type SolveOptions, type CircuitRun, type OutlinedSolve } from './solve';
+export type { NetlistOutline, OutlineSymbols, OutlineMeasure, OutlineCheck, OutlineUse } from './parse/outline';
 export { parseNetlist } from './parse/parse-netlist';
 export type * from './parse/parse-netlist';
 export { readBlockDocs, type BlockDoc, type DocumentedPin, type DocumentedParam } from './parse/block-doc';

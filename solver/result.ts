@@ -97,6 +97,6 @@ export interface SolveResult {
   checks: CheckResult[];
   warnings: Diagnostic[];
   errors: Diagnostic[];
-  /** Later analyses (vary, temp, noise, mismatch, poles) add members of their own. */
-  [extra: string]: unknown;
+  // Later analyses (vary, temp, noise, mismatch, poles) add typed optional members of their own,
+  // named by their keyword, as solver/run/analyses.ts gains their rows.
 }

@@ -3,7 +3,7 @@
  * of values, each point warm-started from the previous converged point; a point that fails warm
  * falls back to the full operating-point ladder (cold Newton, gmin stepping, source stepping).
  */
-import type { Diagnostic } from '../circuit/diagnostic';
+import { diagnostic, type Diagnostic } from '../circuit/diagnostic';
 import type { Circuit, CurrentSource, Part, VoltageSource } from '../circuit/types';
 import type { DcSweepResult, OperatingPoint } from './engine-api';
 import { buildLayout } from './mna';
@@ -12,20 +12,16 @@ import { isOpFailure, solveWithWorkspace } from './operating-point';
 
 /**
  * Sweeps `source` (a vsrc or isrc name) over `values`. `start` (an operating point of the same
- * circuit) warm-starts the first point. Never throws; failed points are left out of `x`/`points`
- * and reported in `errors`.
+ * circuit) warm-starts the first point. Failed points are left out of `x`/`points` and reported
+ * in `errors`. The source is checked where the `analyze transfer` line is resolved; a name that
+ * is not an independent source here is a defect of the caller and throws.
  */
 export function dcSweep(circuit: Circuit, source: string, values: readonly number[], start?: OperatingPoint): DcSweepResult {
   const result: DcSweepResult = { x: [], points: [], errors: [] };
   const index = circuit.parts.findIndex((p) => p.name === source);
   const original = circuit.parts[index];
   if (!original || (original.kind !== 'vsrc' && original.kind !== 'isrc')) {
-    result.errors.push({
-      severity: 'error', code: 'transfer-source', line: original?.loc.line ?? 1, col: original?.loc.col ?? 1,
-      message: `${source} is not an independent voltage or current source, so it cannot be swept.`,
-      hint: 'name a vsrc or isrc',
-    });
-    return result;
+    throw new Error(`dcSweep: \`${source}\` is not an independent source of the circuit`);
   }
   // A private copy of the swept source, mutated per point; every other part is shared.
   const swept: VoltageSource | CurrentSource = { ...original };
@@ -54,8 +50,5 @@ export function dcSweep(circuit: Circuit, source: string, values: readonly numbe
 }
 
 function pointError(loc: { line: number; col: number }, source: string, value: number, why: string): Diagnostic {
-  return {
-    severity: 'error', code: 'transfer-point', line: loc.line, col: loc.col,
-    message: `The transfer point ${source} = ${Number.isFinite(value) ? value : String(value)} was not solved: ${why}`,
-  };
+  return diagnostic('error', 'transfer-point', { line: loc.line, col: loc.col }, `The transfer point ${source} = ${Number.isFinite(value) ? value : String(value)} was not solved: ${why}`);
 }

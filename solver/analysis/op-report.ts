@@ -13,7 +13,7 @@
  * - `ro` is reported as 1e30 Ω when va = ∞ (JSON has no Infinity); `rpi` and `ro` are also capped
  *   at 1e30 Ω wherever the slope is zero or negative (cut-off).
  */
-import type { Diagnostic, SourceLoc } from '../circuit/diagnostic';
+import { diagnostic, type Diagnostic, type DiagnosticCode, type SourceLoc } from '../circuit/diagnostic';
 import type { Circuit } from '../circuit/types';
 import type { BjtOp, DeviceOp, DiodeOp, MosOp, OpResult } from '../result';
 import { bjtCpi, bjtSmallSignal, evalBjt, finiteResistance, RESISTANCE_CAP } from '../devices/bjt';
@@ -74,8 +74,8 @@ export function buildOpReport(
   return { report: { nodes, sources, parts, devices: deviceOps }, warnings };
 }
 
-function warn(out: Diagnostic[], code: string, loc: SourceLoc, message: string, hint: string): void {
-  out.push({ severity: 'warning', code, line: loc.line, col: loc.col, endCol: loc.endCol, message, hint });
+function warn(out: Diagnostic[], code: DiagnosticCode, loc: SourceLoc, message: string, hint: string): void {
+  out.push(diagnostic('warning', code, loc, message, hint));
 }
 
 const mv = (volts: number) => `${(volts * 1000).toPrecision(3)} mV`;

@@ -7,7 +7,7 @@
  * a time, each solve warm-started from the last) and source stepping (all independent sources
  * ramped from 0 to 100 %) are the standard continuation methods for hard DC problems.
  */
-import type { Diagnostic, SourceLoc } from '../circuit/diagnostic';
+import { diagnostic, type Diagnostic, type DiagnosticCode, type SourceLoc } from '../circuit/diagnostic';
 import type { Circuit } from '../circuit/types';
 import type { OperatingPoint, OpFailure } from './engine-api';
 import { buildLayout, partNodes, type MnaLayout } from './mna';
@@ -247,8 +247,8 @@ function failure(ws: NewtonWorkspace, layout: MnaLayout, a: Attempts, iterLimit:
   };
 }
 
-function error(code: string, loc: SourceLoc, message: string, hint?: string): Diagnostic {
-  return { severity: 'error', code, line: loc.line, col: loc.col, endCol: loc.endCol, message, ...(hint ? { hint } : {}) };
+function error(code: DiagnosticCode, loc: SourceLoc, message: string, hint?: string): Diagnostic {
+  return diagnostic('error', code, loc, message, hint);
 }
 
 function firstLoc(circuit: Circuit): SourceLoc {

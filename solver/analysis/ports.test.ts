@@ -8,6 +8,7 @@ import { linearize } from './small-signal';
 import { bjtModel, circuitOf } from './test-circuits';
 import { inputImpedance, outputImpedance } from '../measure/impedance';
 import { logSweep } from './frequency';
+import { solveNetlist } from '../solve';
 
 /** Resistor-tail npn pair: RC = 5 kΩ per side, RT = 10 kΩ, ±10 V rails (default model, va = ∞). */
 function pair(rc = 5e3, rt = 10e3, cjc = 0): Circuit {
@@ -86,13 +87,16 @@ describe('ports', () => {
     expect(out.curves!.cmrr.phase_deg.every((p) => p === 0)).toBe(true);
   });
 
-  it('unknown names are diagnostics on the ports line', () => {
-    const { system, solver } = solved(pair());
-    const out = analyzePorts(system, solver, { ...req('outc'), inN: 'vbb' });
-    expect(out.result).toBeUndefined();
-    expect(out.diagnostics.every((d) => d.severity === 'error' && d.line === 3)).toBe(true);
-    expect(out.diagnostics.find((d) => d.code === 'ports-unknown-source')?.hint).toMatch(/vb/);
-    expect(out.diagnostics.find((d) => d.code === 'ports-unknown-node')).toBeDefined();
+  it('unknown names on the ports line are reported once, where the line is resolved', () => {
+    const text = [
+      'vcc: vsrc(vcc, gnd) 10', 'va: vsrc(ina, gnd) 0', 'vb: vsrc(inb, gnd) 0',
+      'ra: res(vcc, outa) 1k', 'rb: res(vcc, outb) 1k', 'r1: res(ina, outa) 1k', 'r2: res(inb, outb) 1k',
+      'ports in=(va, vbb) out=(outc, outb)',
+    ].join('\n');
+    const result = solveNetlist(text);
+    expect(result.ports).toBeUndefined();
+    expect(result.errors.map((d) => [d.line, d.code])).toEqual([[8, 'unknown-name'], [8, 'unknown-node']]);
+    expect(result.errors[0].hint).toMatch(/vb/);
   });
 
   it('cmrrOf guards zero gains', () => {

@@ -11,14 +11,13 @@
  * unbounded CMRR. JSON has no infinity and a designer reads "more than any real circuit", so
  * CMRR is capped at CMRR_CAP (1e15, 300 dB) and a warning says so.
  */
-import type { Diagnostic, SourceLoc } from '../circuit/diagnostic';
+import { diagnostic, type Diagnostic, type DiagnosticCode, type SourceLoc } from '../circuit/diagnostic';
 import { GROUND } from '../circuit/types';
 import type { PortsRequest } from '../circuit/analyses';
 import type { Curve, PortsResult } from '../result';
 import type { AcSolution, AcSolver, Excitation, LinearSystem, Phasor } from './engine-api';
 import { cadd, cscale, csub, cx, decibels, magnitude, toFigure } from '../measure/complex';
 import { curveFromPhasors } from '../measure/curve';
-import { didYouMean } from '../measure/measure-error';
 import { isSingular } from '../measure/impedance';
 
 /** Largest CMRR reported (300 dB): stands for "unbounded" when acm is exactly zero. */
@@ -44,12 +43,13 @@ export function cmrrOf(adm: Phasor, acm: Phasor): { cmrr: number; capped: boolea
   return { cmrr: a / c, capped: false, silent: false };
 }
 
-function warning(code: string, loc: SourceLoc, message: string, hint?: string): Diagnostic {
-  return { severity: 'warning', code, line: loc.line, col: loc.col, message, ...(hint ? { hint } : {}) };
+/** Problems of the ports line point at its start (line and column only, as they always have). */
+function warning(code: DiagnosticCode, loc: SourceLoc, message: string, hint?: string): Diagnostic {
+  return diagnostic('warning', code, { line: loc.line, col: loc.col }, message, hint);
 }
 
-function error(code: string, loc: SourceLoc, message: string, hint?: string): Diagnostic {
-  return { severity: 'error', code, line: loc.line, col: loc.col, message, ...(hint ? { hint } : {}) };
+function error(code: DiagnosticCode, loc: SourceLoc, message: string, hint?: string): Diagnostic {
+  return diagnostic('error', code, { line: loc.line, col: loc.col }, message, hint);
 }
 
 /** The definitions, in words, with the netlist's own names. */
@@ -82,33 +82,14 @@ function gains(req: PortsRequest, [dm, cm]: AcSolution[]): { adm: Phasor; acm: P
   return { adm: vod, acm: voc };
 }
 
-/** Checks that the names exist and the drive makes sense; returns errors (empty when fine). */
-function validate(system: LinearSystem, req: PortsRequest): Diagnostic[] {
-  const out: Diagnostic[] = [];
-  for (const s of [req.inP, req.inN]) {
-    if (!system.sources.has(s)) {
-      out.push(error('ports-unknown-source', req.loc, `ports: \`${s}\` is not an independent source.`, didYouMean(s, system.sources.keys()) ?? 'ports in=(…) names two vsrc (or isrc) parts'));
-    }
-  }
-  if (req.inP === req.inN) out.push(error('ports-same-source', req.loc, `ports: both inputs name \`${req.inP}\`.`, 'name the two different drive sources'));
-  for (const n of [req.outP, req.outN]) {
-    if (n !== undefined && n !== GROUND && !system.nodeIndex.has(n)) {
-      out.push(error('ports-unknown-node', req.loc, `ports: there is no node \`${n}\`.`, didYouMean(n, system.nodeIndex.keys())));
-    }
-  }
-  return out;
-}
-
 /**
  * Solves the ports request at its own frequency and, when `sweepHz` is given, over the sweep.
- * Never throws: problems come back as diagnostics on the `ports` line.
+ * The request is resolved (two different independent sources, existing nodes, a frequency of
+ * 0 Hz or more: checked where the ports line is read). Never throws: problems of the solve come
+ * back as diagnostics on the `ports` line.
  */
 export function analyzePorts(system: LinearSystem, solver: AcSolver, req: PortsRequest, sweepHz?: number[]): PortsOutcome {
-  const diagnostics = validate(system, req);
-  if (diagnostics.length > 0) return { diagnostics };
-  if (!Number.isFinite(req.atHz) || req.atHz < 0) {
-    return { diagnostics: [error('ports-frequency', req.loc, 'ports: the `at` frequency must be 0 Hz or more.')] };
-  }
+  const diagnostics: Diagnostic[] = [];
   const drive = excitations(req);
   const atSolutions = solver.solve(req.atHz, drive);
   if (atSolutions.some(isSingular)) {
@@ -134,18 +115,22 @@ export function analyzePorts(system: LinearSystem, solver: AcSolver, req: PortsR
     conventions: portsConventions(req),
   };
   const outcome: PortsOutcome = { result, adm, acm, diagnostics };
-  if (sweepHz && sweepHz.length > 0) {
-    const admPoints: Phasor[] = [];
-    const acmPoints: Phasor[] = [];
-    const cmrrPoints: Phasor[] = [];
-    for (const f of sweepHz) {
-      const g = gains(req, solver.solve(f, drive));
-      admPoints.push(g.adm);
-      acmPoints.push(g.acm);
-      // cmrr is a magnitude by definition: its curve is real and positive (phase 0).
-      cmrrPoints.push(cx(cmrrOf(g.adm, g.acm).cmrr));
-    }
-    outcome.curves = { adm: curveFromPhasors(admPoints), acm: curveFromPhasors(acmPoints), cmrr: curveFromPhasors(cmrrPoints) };
-  }
+  if (sweepHz && sweepHz.length > 0) outcome.curves = portsCurves(solver, req, sweepHz);
   return outcome;
+}
+
+/** adm, acm and cmrr of a ports request over a frequency sweep (the ac analysis's ports curves). */
+export function portsCurves(solver: AcSolver, req: PortsRequest, sweepHz: readonly number[]): { adm: Curve; acm: Curve; cmrr: Curve } {
+  const drive = excitations(req);
+  const admPoints: Phasor[] = [];
+  const acmPoints: Phasor[] = [];
+  const cmrrPoints: Phasor[] = [];
+  for (const f of sweepHz) {
+    const g = gains(req, solver.solve(f, drive));
+    admPoints.push(g.adm);
+    acmPoints.push(g.acm);
+    // cmrr is a magnitude by definition: its curve is real and positive (phase 0).
+    cmrrPoints.push(cx(cmrrOf(g.adm, g.acm).cmrr));
+  }
+  return { adm: curveFromPhasors(admPoints), acm: curveFromPhasors(acmPoints), cmrr: curveFromPhasors(cmrrPoints) };
 }

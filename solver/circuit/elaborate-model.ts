@@ -3,14 +3,14 @@
  * written, each written key checked against the table of §2 (unknown key: "did you mean").
  */
 import type { ModelStmt, ValueText } from '../parse/ast';
-import { defaultBjtModel, defaultDiodeModel, defaultMosModel, article, MODEL_KEYS, MODEL_KINDS, modelFamily, type Range } from '../parse/kinds';
+import { defaultBjtModel, defaultDiodeModel, defaultMosModel, article, MODEL_KEYS, MODEL_KINDS, modelFamily, type Range } from '../language/part-kinds';
 import type { QuantityUnit } from '../parse/quantity';
 import { didYouMean } from '../parse/suggest';
-import type { SourceLoc } from './diagnostic';
+import type { DiagnosticCode, SourceLoc } from './diagnostic';
 import type { ResolvedModel } from './elaborate-part';
 
 export interface ModelContext {
-  report(code: string, loc: SourceLoc, message: string, hint?: string): void;
+  report(code: DiagnosticCode, loc: SourceLoc, message: string, hint?: string): void;
   evaluate(value: ValueText, unit: QuantityUnit, slot: string, range: Range): number;
 }
 

@@ -3,10 +3,10 @@
  * main value and keys evaluated and range-checked, the device model looked up.
  */
 import type { Connection, Name, PartStmt, ValueText } from '../parse/ast';
-import { DEFAULT_MOS_L, DEFAULT_MOS_W, defaultBjtModel, defaultDiodeModel, defaultMosModel, article, type KeySpec, type PartKindSpec, type Range } from '../parse/kinds';
+import { DEFAULT_MOS_L, DEFAULT_MOS_W, defaultBjtModel, defaultDiodeModel, defaultMosModel, article, type KeySpec, type PartKindSpec, type Range } from '../language/part-kinds';
 import type { QuantityUnit } from '../parse/quantity';
 import { didYouMean } from '../parse/suggest';
-import type { SourceLoc } from './diagnostic';
+import type { DiagnosticCode, SourceLoc } from './diagnostic';
 import type { AcSpec, BjtModel, DiodeModel, MosModel, Part } from './types';
 
 /** A model resolved in scope. */
@@ -17,7 +17,7 @@ export interface ResolvedModel {
 
 /** What building a part needs from the elaborator. */
 export interface PartContext {
-  report(severity: 'error' | 'warning', code: string, loc: SourceLoc, message: string, hint?: string): void;
+  report(severity: 'error' | 'warning', code: DiagnosticCode, loc: SourceLoc, message: string, hint?: string): void;
   /** Evaluates a value in the current scope; NaN (already reported) on failure. */
   evaluate(value: ValueText, unit: QuantityUnit, slot: string, range: Range): number;
   /** Flattened node name for a node written in the current scope. */

@@ -6,10 +6,10 @@
  */
 import type { BlockDef, Body, FileUnit, ModelStmt, PartStmt, ValueText } from '../parse/ast';
 import { evaluateExpression, type NameScope } from '../parse/expression';
-import { OPTION_KEYS, PART_KINDS, rangeProblem, type Range } from '../parse/kinds';
+import { OPTION_KEYS, PART_KINDS, rangeProblem, type Range } from '../language/part-kinds';
 import type { QuantityUnit } from '../parse/quantity';
 import { didYouMean } from '../parse/suggest';
-import type { DiagnosticBag, SourceLoc } from './diagnostic';
+import type { DiagnosticBag, DiagnosticCode, SourceLoc } from './diagnostic';
 import { buildPart, resolvePins, type PartContext, type ResolvedModel } from './elaborate-part';
 import { evaluateModel } from './elaborate-model';
 import { DEFAULT_OPTIONS, GROUND, type Circuit, type Part, type PartKind } from './types';
@@ -132,7 +132,7 @@ class Elaborator {
     private readonly options: ElaborateOptions,
   ) {}
 
-  report(frame: Frame, severity: 'error' | 'warning', code: string, loc: SourceLoc, message: string, hint?: string): void {
+  report(frame: Frame, severity: 'error' | 'warning', code: DiagnosticCode, loc: SourceLoc, message: string, hint?: string): void {
     if (frame.file.origin) {
       message = `In \`${frame.file.origin}\` line ${loc.line}: ${message}`;
       loc = frame.anchor ?? loc;

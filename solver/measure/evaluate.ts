@@ -8,9 +8,10 @@
  */
 import type { MathNode } from 'mathjs';
 import type { CheckRequest, MeasureRequest } from '../circuit/analyses';
-import type { Diagnostic, SourceLoc } from '../circuit/diagnostic';
+import { diagnostic, type Diagnostic, type SourceLoc } from '../circuit/diagnostic';
 import type { CheckResult } from '../result';
-import { fromPhasor, measureFunctions, CURVE_FUNCTIONS, PORTS_CURVE_NAMES, type MeasureContext } from './functions';
+import { BUILTIN_FIGURES, CURVE_FUNCTIONS, PORTS_CURVE_NAMES } from '../language/vocabulary';
+import { fromPhasor, measureFunctions, type MeasureContext } from './functions';
 import { isEffectivelyReal } from './complex';
 import { FollowOnError, MeasureError, didYouMean } from './measure-error';
 import { measureMath } from './math';
@@ -22,11 +23,8 @@ export interface MeasureOutcome {
   diagnostics: Diagnostic[];
 }
 
-/** Names a measure may not take: they already mean something in expressions. */
-const PORTS_NAMES = ['adm', 'acm', 'cmrr', 'cmrr_db'];
-
-function diagnostic(loc: SourceLoc, message: string, hint?: string): Diagnostic {
-  return { severity: 'error', code: 'measure-error', line: loc.line, col: loc.col, ...(loc.endCol ? { endCol: loc.endCol } : {}), message, ...(hint ? { hint } : {}) };
+function measureError(loc: SourceLoc, message: string, hint?: string): Diagnostic {
+  return diagnostic('error', 'measure-error', loc, message, hint);
 }
 
 /** Inside at/corner/unity/margin the bare names adm, acm, cmrr stand for their curves. */
@@ -36,9 +34,9 @@ function markCurveNames(node: MathNode): MathNode {
     const c = child as unknown as { type: string; name?: string };
     if (
       c.type === 'SymbolNode' &&
-      (PORTS_CURVE_NAMES as readonly string[]).includes(c.name ?? '') &&
+      PORTS_CURVE_NAMES.includes(c.name ?? '') &&
       p?.type === 'FunctionNode' &&
-      (CURVE_FUNCTIONS as readonly string[]).includes(p.fn?.name ?? '') &&
+      CURVE_FUNCTIONS.includes(p.fn?.name ?? '') &&
       p.args?.[0] === child
     ) {
       return measureMath.parse(JSON.stringify(c.name));
@@ -80,7 +78,7 @@ function explain(
   if (symbol) {
     const name = symbol[1];
     if (failedMeasures.has(name)) return undefined;
-    if ((PORTS_CURVE_NAMES as readonly string[]).includes(name) || name === 'cmrr_db') {
+    if (BUILTIN_FIGURES.includes(name)) {
       if (failedRequests.has('ports')) return undefined;
       return { message: `\`${name}\` needs a \`ports\` statement.`, hint: 'add `ports in=(va, vb) out=(outa, outb)`' };
     }
@@ -132,11 +130,8 @@ export function evaluateMeasures(measureRequests: MeasureRequest[], checkRequest
   };
 
   for (const m of measureRequests) {
-    if (PORTS_NAMES.includes(m.name) || m.name in functions) {
-      diagnostics.push(diagnostic(m.loc, `measure \`${m.name}\`: the name is taken by ${m.name in functions ? 'a function' : 'a ports figure'}.`, 'choose another name'));
-      failed.add(m.name);
-      continue;
-    }
+    // A measure named like a function or a ports figure was refused where requests are resolved
+    // (`reserved-name`); the evaluator takes the names it is given.
     try {
       const value = evaluate('the value', m.expr);
       measures[m.name] = value;
@@ -146,7 +141,7 @@ export function evaluateMeasures(measureRequests: MeasureRequest[], checkRequest
       const why = explain(err, scopeNames(), functionNames, failed, failedRequests);
       if (why) {
         const prefix = `measure ${m.name}: `;
-        diagnostics.push(diagnostic(m.loc, why.message.startsWith(prefix) ? why.message : prefix + why.message, why.hint));
+        diagnostics.push(measureError(m.loc, why.message.startsWith(prefix) ? why.message : prefix + why.message, why.hint));
       }
       failed.add(m.name);
       scope.delete(m.name);
@@ -159,11 +154,11 @@ export function evaluateMeasures(measureRequests: MeasureRequest[], checkRequest
       const value = evaluate('the left side', c.lhs);
       const limit = evaluate('the right side', c.rhs);
       const result = evaluateCheck(c, value, limit);
-      if (typeof result === 'string') diagnostics.push(diagnostic(c.loc, `check ${c.text}: ${result}`));
+      if (typeof result === 'string') diagnostics.push(measureError(c.loc, `check ${c.text}: ${result}`));
       else checks.push(result);
     } catch (err) {
       const why = explain(err, scopeNames(), functionNames, failed, failedRequests);
-      if (why) diagnostics.push(diagnostic(c.loc, `check ${c.text}: ${why.message}`, why.hint));
+      if (why) diagnostics.push(measureError(c.loc, `check ${c.text}: ${why.message}`, why.hint));
     }
   }
   return { measures, checks, diagnostics };

@@ -9,6 +9,7 @@
 import type { AcSolution, AcSolver, LinearSystem, Phasor } from '../analysis/engine-api';
 import { GROUND } from '../circuit/types';
 import type { Curve, OpResult } from '../result';
+import { CURVE_FUNCTIONS, PORTS_CURVE_NAMES } from '../language/vocabulary';
 import { csub, cx, decibels, isEffectivelyReal, magnitude, phaseDeg } from './complex';
 import { corner, curveFromPhasors, margin, unity, valueAt, type FreqCurve } from './curve';
 import { inputImpedance, outputImpedance } from './impedance';
@@ -30,9 +31,8 @@ export interface MeasureContext {
   failed?: ReadonlySet<string>;
 }
 
-/** The functions whose first argument names a curve; `adm`, `acm`, `cmrr` there mean their curves. */
-export const CURVE_FUNCTIONS = ['at', 'corner', 'unity', 'margin'] as const;
-export const PORTS_CURVE_NAMES = ['adm', 'acm', 'cmrr'] as const;
+/** The functions whose first argument names a curve; `adm`, `acm`, `cmrr` there mean their curves (the vocabulary's lists). */
+export { CURVE_FUNCTIONS, PORTS_CURVE_NAMES };
 
 type MathComplex = { re: number; im: number; isComplex?: boolean };
 
@@ -92,7 +92,7 @@ export function measureFunctions(ctx: MeasureContext): Record<string, (...args: 
 
   const curveArg = (fn: string, x: unknown): FreqCurve => {
     if (isFreqCurve(x)) return x;
-    if (typeof x === 'string' && (PORTS_CURVE_NAMES as readonly string[]).includes(x)) {
+    if (typeof x === 'string' && PORTS_CURVE_NAMES.includes(x)) {
       const ac = needAc(fn);
       if ((!ctx.ports || !ac.portsCurves) && ctx.failed?.has('ports')) throw new FollowOnError('ports');
       if (!ctx.ports || !ac.portsCurves) throw new MeasureError(`${fn}(${x}) needs a \`ports\` statement.`, 'add `ports in=(va, vb) out=(outa, outb)`');

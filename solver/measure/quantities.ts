@@ -5,13 +5,16 @@
  */
 import { GROUND } from '../circuit/types';
 import type { BjtOp, DeviceOp, DiodeOp, MosOp, OpResult } from '../result';
+import { MEASURABLE } from '../language/vocabulary';
 import { MeasureError, didYouMean } from './measure-error';
 
-/** Per-device quantities the language offers, by device family. */
-export const BJT_QUANTITIES = ['ic', 'ib', 'ie', 'vbe', 'vce', 'gm', 'rpi', 'ro', 'cpi', 'cmu'] as const;
-export const MOS_QUANTITIES = ['id', 'vgs', 'vds', 'vov', 'gm', 'gds'] as const;
-export type DeviceQuantity = (typeof BJT_QUANTITIES)[number] | (typeof MOS_QUANTITIES)[number];
-export const DEVICE_QUANTITIES: DeviceQuantity[] = [...new Set<DeviceQuantity>([...BJT_QUANTITIES, ...MOS_QUANTITIES])];
+/** Per-device quantities the language offers, by device family (the vocabulary's table). */
+export const BJT_QUANTITIES = MEASURABLE.bjt;
+export const MOS_QUANTITIES = MEASURABLE.mos;
+/** A measurable device quantity's name (`ic`, `gm`, …). */
+export type DeviceQuantity = string;
+/** Every measurable device quantity once, bipolar first. */
+export const DEVICE_QUANTITIES: DeviceQuantity[] = [...new Set([...BJT_QUANTITIES, ...MOS_QUANTITIES])];
 
 function requireName(fn: string, name: unknown): string {
   if (typeof name !== 'string') {
@@ -55,11 +58,11 @@ export function deviceQuantity(op: OpResult, quantity: DeviceQuantity, device: u
     throw new MeasureError(`${quantity}(${name}): ${what}.`, hint);
   }
   if (d.kind === 'npn' || d.kind === 'pnp') {
-    if ((BJT_QUANTITIES as readonly string[]).includes(quantity)) return (d as BjtOp)[quantity as keyof BjtOp] as number;
+    if (BJT_QUANTITIES.includes(quantity)) return (d as BjtOp)[quantity as keyof BjtOp] as number;
     throw new MeasureError(`${quantity}(${name}): \`${name}\` is a bipolar transistor, which has no ${quantity}.`, `bipolar quantities: ${BJT_QUANTITIES.join(' ')}`);
   }
   if (d.kind === 'nmos' || d.kind === 'pmos') {
-    if ((MOS_QUANTITIES as readonly string[]).includes(quantity)) return (d as MosOp)[quantity as keyof MosOp] as number;
+    if (MOS_QUANTITIES.includes(quantity)) return (d as MosOp)[quantity as keyof MosOp] as number;
     throw new MeasureError(`${quantity}(${name}): \`${name}\` is a MOS transistor, which has no ${quantity}.`, `MOS quantities: ${MOS_QUANTITIES.join(' ')}`);
   }
   // A diode offers its current as id; nothing else of the transistor lists applies.

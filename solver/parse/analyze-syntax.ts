@@ -4,27 +4,21 @@
 import type { AnalysisRequest } from '../circuit/analyses';
 import type { SourceLoc } from '../circuit/diagnostic';
 import type { TokenStmt, ValueText } from './ast';
-import type { QuantityUnit } from './quantity';
+import { ANALYSES, ANALYSIS_SPECS, MISMATCH_KEYS, type QuantityUnit } from '../language/vocabulary';
 import type { RequestContext } from './requests';
 import { didYouMean } from './suggest';
 
 /** Most points any sweep may have: more is surely a typo and would stall the bench. */
 export const MAX_SWEEP_POINTS = 100_000;
+/** More frequency points than this is a typo in the sweep, not a request. */
+export const MAX_AC_POINTS = 20_001;
+/** More transfer points than this is a typo in the step. */
+export const MAX_TRANSFER_POINTS = 20_001;
 
-/** The analyses of the language (§3). */
-export const ANALYSES = ['ac', 'transfer', 'vary', 'temp', 'noise', 'mismatch', 'poles'];
-/** Mismatch keys: what each 1-sigma spread applies to. */
-export const MISMATCH_KEYS = ['beta', 'is', 'va', 'vth', 'ucox', 'lambda', 'res', 'cap'];
+/** The analyses of the language (§3) and the mismatch keys: from the vocabulary. */
+export { ANALYSES, MISMATCH_KEYS };
 
-const USAGE: Record<string, string> = {
-  ac: 'analyze ac from 10 Hz to 1 GHz per decade 20',
-  transfer: 'analyze transfer va from -100m to 100m step 1m',
-  vary: 'analyze vary rt over 1k 10k 100k',
-  temp: 'analyze temp over -40 27 125',
-  noise: 'analyze noise out outa in va from 10 Hz to 10 MHz per decade 10',
-  mismatch: 'analyze mismatch runs 500 seed 7 beta 5% is 2% res 0.5%',
-  poles: 'analyze poles',
-};
+const USAGE: Record<string, string> = Object.fromEntries(ANALYSIS_SPECS.map((a) => [a.kind, a.syntax]));
 
 /** A word: adjacent tokens with no space between them (a quantity with its unit is one token). */
 interface Word { text: string; value: ValueText; loc: SourceLoc }
@@ -185,7 +179,7 @@ export function parseAnalyze(ctx: RequestContext, s: TokenStmt): AnalysisRequest
     return undefined;
   }
   const kind = kindWord.text;
-  if (!ANALYSES.includes(kind)) {
+  if (!(ANALYSES as readonly string[]).includes(kind)) {
     ctx.error('unknown-analysis', kindWord.loc, `Unknown analysis \`${kind}\`.`, didYouMean(kind, ANALYSES) ?? `analyses are ${ANALYSES.join(', ')}`);
     return undefined;
   }
@@ -196,7 +190,13 @@ export function parseAnalyze(ctx: RequestContext, s: TokenStmt): AnalysisRequest
   switch (kind) {
     case 'ac': {
       const d = decadeSweep(c, 'Hz', 'frequency');
-      if (d) result = { kind: 'ac', fromHz: d.from, toHz: d.to, perDecade: d.perDecade, loc };
+      if (!d) break;
+      const points = Math.log10(d.to / d.from) * d.perDecade + 1;
+      if (points > MAX_AC_POINTS) {
+        ctx.error('bad-ac-sweep', loc, `analyze ac: the sweep would have ${Math.round(points)} points (at most ${MAX_AC_POINTS}).`, 'use fewer points per decade or a narrower range');
+        return undefined;
+      }
+      result = { kind: 'ac', fromHz: d.from, toHz: d.to, perDecade: d.perDecade, loc };
       break;
     }
     case 'transfer': {
@@ -207,9 +207,15 @@ export function parseAnalyze(ctx: RequestContext, s: TokenStmt): AnalysisRequest
       const unit = part?.kind === 'isrc' ? 'A' : 'V';
       const values = linearSweep(c, unit, part?.kind === 'isrc' ? 'current' : 'voltage');
       if (!values || !source) break;
-      const from = values[0];
-      const to = values[values.length - 1];
-      result = { kind: 'transfer', source, from, to, step: values.length > 1 ? values[1] - values[0] : 0, loc };
+      if (values.length < 2) {
+        ctx.error('bad-transfer', loc, 'analyze transfer: the step must be non-zero and lead from the start value to the end value.', `write e.g. \`${USAGE.transfer}\``);
+        return undefined;
+      }
+      if (values.length > MAX_TRANSFER_POINTS) {
+        ctx.error('bad-transfer', loc, `analyze transfer: the sweep would have ${values.length} points (at most ${MAX_TRANSFER_POINTS}).`, 'use a larger step');
+        return undefined;
+      }
+      result = { kind: 'transfer', source, from: values[0], to: values[values.length - 1], step: values[1] - values[0], loc };
       break;
     }
     case 'vary': {

@@ -11,15 +11,14 @@ import {
   sqrtDependencies, subtractDependencies, tanDependencies, unaryMinusDependencies, unaryPlusDependencies,
   type MathJsInstance,
 } from 'mathjs';
+import type { DiagnosticCode } from '../circuit/diagnostic';
+import { functionSpec, RESULT_FUNCTIONS } from '../language/vocabulary';
 import { parseQuantity, type QuantityUnit } from './quantity';
 import { didYouMean } from './suggest';
 import { tokenize, type Token } from './tokens';
 
-/** Result functions whose name arguments are quoted (§3). */
-export const RESULT_FUNCTIONS = new Set([
-  'v', 'i', 'ic', 'ib', 'ie', 'vbe', 'vce', 'gm', 'rpi', 'ro', 'cpi', 'cmu',
-  'id', 'vgs', 'vds', 'vov', 'gds', 'zin', 'zout', 'ac',
-]);
+/** Result functions whose name arguments are quoted (§3): from the vocabulary. */
+export { RESULT_FUNCTIONS };
 
 /**
  * How many leading arguments of a result function are names (quoted); the rest are expressions.
@@ -27,7 +26,7 @@ export const RESULT_FUNCTIONS = new Set([
  * frequency, which may be any expression (`zout(out, fhi)` with `param fhi = 1M`).
  */
 export function nameSlots(fn: string): number {
-  return fn === 'v' || fn === 'ac' ? 2 : 1;
+  return functionSpec(fn)?.names ?? 0;
 }
 
 /** Functions a parameter expression may call. */
@@ -37,7 +36,7 @@ export const PARAM_CONSTANTS = new Set(['pi', 'e']);
 
 /** A problem found in an expression, at an offset in the text given. */
 export interface ExpressionProblem {
-  code: string;
+  code: DiagnosticCode;
   offset: number;
   length: number;
   message: string;

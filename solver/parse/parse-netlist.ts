@@ -4,11 +4,12 @@
  * the requests. Reports every problem at once; never throws, whatever the input.
  */
 import type { Requests } from '../circuit/analyses';
-import { DiagnosticBag, tidyDiagnostic, type Diagnostic, type SourceLoc } from '../circuit/diagnostic';
+import { diagnostic, DiagnosticBag, tidyDiagnostic, type Diagnostic, type SourceLoc } from '../circuit/diagnostic';
 import { elaborate, type Elaboration } from '../circuit/elaborate';
 import { checkTopology } from '../circuit/topology';
 import type { Circuit } from '../circuit/types';
 import type { BlockDef, FileUnit } from './ast';
+import { addElaboration, emptyOutline, outlineOfFile, type NetlistOutline } from './outline';
 import { resolveRequests } from './requests';
 import { parseFile } from './statements';
 
@@ -47,6 +48,8 @@ export interface ParseResult {
   diagnostics: Diagnostic[];
   /** Names for editor completion. */
   symbols: NetlistSymbols;
+  /** The names with their kinds, the measure, check and `use` lines: what the editor shows. */
+  outline: NetlistOutline;
 }
 
 /** Most diagnostics returned; past this the netlist is surely not what was meant. */
@@ -164,7 +167,7 @@ function finish(items: Diagnostic[]): Diagnostic[] {
     const last = unique[MAX_DIAGNOSTICS - 1];
     return [
       ...unique.slice(0, MAX_DIAGNOSTICS - 1),
-      { severity: 'error', code: 'too-many', line: last.line, col: last.col, message: `${unique.length - MAX_DIAGNOSTICS + 1} further problems are not shown.` },
+      diagnostic('error', 'too-many', { line: last.line, col: last.col }, `${unique.length - MAX_DIAGNOSTICS + 1} further problems are not shown.`),
     ];
   }
   return unique;
@@ -174,6 +177,7 @@ function finish(items: Diagnostic[]): Diagnostic[] {
 export function parseNetlist(text: string, options: ParseOptions = {}): ParseResult {
   const bag = new DiagnosticBag();
   const symbols: NetlistSymbols = { models: [], blocks: [], params: [], parts: [], nodes: [] };
+  let outline = emptyOutline();
   let requests = emptyRequests();
   let elab: Elaboration | undefined;
   const requestLines = new Set<number>();
@@ -183,15 +187,17 @@ export function parseNetlist(text: string, options: ParseOptions = {}): ParseRes
       if (/^\s*(analyze|ports|measure|check)\b/.test(l)) requestLines.add(i + 1);
     });
     const file = parseFile(source, bag);
+    outline = outlineOfFile(file);
     for (const r of file.requests) requestLines.add(r.loc.line);
     const uses = new UseResolver(bag, options.resolveUse);
     uses.resolveFile(file, undefined, []);
     elab = elaborate(file, bag, { usedBlocks: uses.usedBlocks, useAnchors: uses.anchors, failedBlocks: uses.failedBlocks, paramOverrides: options.paramOverrides });
-    symbols.models = elab.modelNames;
-    symbols.blocks = elab.blocks.map((b) => ({ name: b.name.text, pins: b.pins.map((p) => p.text), params: b.params.map((p) => p.name.text) }));
-    symbols.params = [...elab.params.keys()];
-    symbols.parts = elab.circuit.parts.map((p) => p.name);
-    symbols.nodes = [...elab.circuit.nodes];
+    addElaboration(outline, file, elab);
+    symbols.models = outline.symbols.models.map((m) => m.name);
+    symbols.blocks = outline.symbols.blocks;
+    symbols.params = outline.symbols.params;
+    symbols.parts = outline.symbols.parts.map((p) => p.name);
+    symbols.nodes = outline.symbols.nodes;
     checkTopology(elab.circuit.parts, bag, { brokenNodes: elab.brokenNodes });
     requests = resolveRequests(file.requests, {
       parts: new Map(elab.circuit.parts.map((p) => [p.name, p])),
@@ -209,5 +215,5 @@ export function parseNetlist(text: string, options: ParseOptions = {}): ParseRes
   // A mistake in an analyze, ports, measure or check line drops that request only: the circuit
   // still solves, so a designer typing a new measure keeps the bias and gains on screen.
   const circuitErrors = diagnostics.some((d) => d.severity === 'error' && (!requestLines.has(d.line) || d.code === 'internal'));
-  return { ...(elab && !circuitErrors ? { circuit: elab.circuit } : {}), requests, requestLines, diagnostics, symbols };
+  return { ...(elab && !circuitErrors ? { circuit: elab.circuit } : {}), requests, requestLines, diagnostics, symbols, outline };
 }

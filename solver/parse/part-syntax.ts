@@ -3,7 +3,7 @@
  * `model NAME: KIND(key=value, ...)`. Only the shape is checked here; kinds, pins, keys and values
  * are checked by the elaborator, which knows the blocks and models in scope.
  */
-import type { DiagnosticBag } from '../circuit/diagnostic';
+import type { DiagnosticBag, DiagnosticCode } from '../circuit/diagnostic';
 import type { Connection, KeyValue, ModelStmt, Name, PartStmt, ValueText } from './ast';
 import type { LogicalLine } from './lines';
 import type { Token } from './tokens';
@@ -38,7 +38,7 @@ export class LineContext {
     return { text, line: this.line, start: s, loc: this.line.loc(s, s + text.length) };
   }
 
-  error(code: string, t: Token | undefined, message: string, hint?: string): void {
+  error(code: DiagnosticCode, t: Token | undefined, message: string, hint?: string): void {
     const loc = t ? this.line.loc(t.start, t.end) : this.line.loc(this.line.text.trimEnd().length);
     this.bag.error(code, loc, message, hint);
   }
@@ -141,7 +141,7 @@ function parseConnections(ctx: LineContext, open: number, close: number, quiet =
   const { tokens } = ctx;
   const conns: Connection[] = [];
   let broken = false;
-  const fail = (t: Token | undefined, code: string, message: string, hint?: string): void => {
+  const fail = (t: Token | undefined, code: DiagnosticCode, message: string, hint?: string): void => {
     if (!quiet) ctx.error(code, t, message, hint);
     broken = true;
   };

@@ -5,15 +5,17 @@
  */
 import { PREFIXES, UNITS } from './tokens';
 
-/** Canonical units a slot may expect; `''` means a plain number (a `%` is still accepted). */
-export type QuantityUnit = 'V' | 'A' | '\u03a9' | 'F' | 'H' | 'Hz' | 's' | 'S' | '%' | '';
+import type { DiagnosticCode } from '../circuit/diagnostic';
+import type { QuantityUnit } from '../language/vocabulary';
+
+export type { QuantityUnit };
 
 export type QuantityResult =
   | { ok: true; value: number; unit: string }
   | {
       ok: false;
       /** Diagnostic code: `bad-quantity`, `bad-unit`, `meg-prefix` or `unit-mismatch`. */
-      code: string;
+      code: Extract<DiagnosticCode, 'bad-quantity' | 'bad-unit' | 'meg-prefix' | 'unit-mismatch'>;
       message: string;
       hint?: string;
       /** Offset in `text` where the problem starts, and its length. */

@@ -4,13 +4,13 @@
  * mathjs. Produces the Requests of solver/circuit/analyses.ts.
  */
 import type { AnalysisRequest, CheckRequest, MeasureRequest, PortsRequest, Requests } from '../circuit/analyses';
-import type { DiagnosticBag, SourceLoc } from '../circuit/diagnostic';
+import type { DiagnosticBag, DiagnosticCode, SourceLoc } from '../circuit/diagnostic';
 import { GROUND, type Part } from '../circuit/types';
 import type { CheckStmt, MeasureStmt, RequestStmt, TokenStmt, ValueText } from './ast';
-import { evaluateExpression, PARAM_CONSTANTS, RESULT_FUNCTIONS, rewriteExpressionDetailed } from './expression';
-import { article, BUILTIN_FIGURES, rangeProblem, type Range } from './kinds';
-import type { QuantityUnit } from './quantity';
-import { ANALYSES, parseAnalyze } from './analyze-syntax';
+import { article, rangeProblem, type Range } from '../language/part-kinds';
+import { ANALYSES, ANALYSIS_SPECS, BJT_ONLY, BUILTIN_FIGURES, functionSpec, MEASURE_FUNCTIONS, MOS_ONLY, RESULT_FUNCTIONS, type QuantityUnit } from '../language/vocabulary';
+import { evaluateExpression, PARAM_CONSTANTS, rewriteExpressionDetailed } from './expression';
+import { parseAnalyze } from './analyze-syntax';
 import { closest, didYouMean } from './suggest';
 
 /** What the request resolver needs to know about the circuit. */
@@ -25,20 +25,14 @@ export interface RequestScope {
   bag: DiagnosticBag;
 }
 
-/** Functions a measure or check may call besides the result functions. */
-export const MEASURE_FUNCTIONS = new Set([
-  ...RESULT_FUNCTIONS, 'db', 'mag', 'phase', 'at', 'corner', 'unity', 'margin',
-  'min', 'max', 'abs', 'sqrt', 'log10', 'log', 'exp', 'pow',
-]);
-
-const BJT_FUNCTIONS = new Set(['ic', 'ib', 'ie', 'vbe', 'vce', 'rpi', 'ro', 'cpi', 'cmu']);
-const MOS_FUNCTIONS = new Set(['id', 'vgs', 'vds', 'vov', 'gds']);
+/** Every function a measure or check may call (the vocabulary's table). */
+export { MEASURE_FUNCTIONS };
 
 /** Helpers shared by the analyze parser. */
 export class RequestContext {
   constructor(readonly scope: RequestScope) {}
 
-  error(code: string, loc: SourceLoc, message: string, hint?: string): void {
+  error(code: DiagnosticCode, loc: SourceLoc, message: string, hint?: string): void {
     this.scope.bag.error(code, loc, message, hint);
   }
 
@@ -122,7 +116,10 @@ export function resolveRequests(stmts: RequestStmt[], scope: RequestScope): Requ
   for (const s of stmts) {
     if (s.kind === 'analyze') {
       const a: AnalysisRequest | undefined = parseAnalyze(ctx, s);
-      if (a) requests.analyses.push(a);
+      const first = a && ANALYSIS_SPECS.find((spec) => spec.kind === a.kind)?.once ? requests.analyses.find((r) => r.kind === a.kind) : undefined;
+      if (a && first) {
+        scope.bag.warning('duplicate-analysis', a.loc, `A second \`analyze ${a.kind}\` is ignored; the first one (line ${first.loc.line}) runs.`, 'keep one line per analysis');
+      } else if (a) requests.analyses.push(a);
       else {
         const meant = analysisMeant(s);
         if (meant) failed.add(meant);
@@ -143,7 +140,7 @@ export function resolveRequests(stmts: RequestStmt[], scope: RequestScope): Requ
 function analysisMeant(s: TokenStmt): string | undefined {
   const word = s.tokens[1]?.text;
   if (word === undefined) return undefined;
-  return ANALYSES.includes(word) ? word : closest(word, ANALYSES);
+  return (ANALYSES as readonly string[]).includes(word) ? word : closest(word, ANALYSES);
 }
 
 /** `ports in=(va, vb) out=(outa, outb) [at F]` or `out=outa`. */
@@ -254,12 +251,13 @@ function resolveExpression(ctx: RequestContext, value: ValueText, known: Measure
     const nameArgs = call.args.filter((a) => a.name !== undefined);
     const exprArgs = call.args.filter((a) => a.name === undefined);
     const fn = call.fn;
-    const nodeFn = fn === 'v' || fn === 'ac';
-    const maxNames = nodeFn ? 2 : 1;
-    const maxExtra = fn === 'zin' || fn === 'zout' ? 1 : 0;
+    const spec = functionSpec(fn);
+    const maxNames = spec?.names ?? 1;
+    const nodeFn = maxNames === 2;
+    const maxExtra = spec?.optional ? 1 : 0;
     const firstIsName = call.args.length > 0 && call.args[0].name !== undefined;
     if (!firstIsName || nameArgs.length > maxNames || exprArgs.length > maxExtra || (nodeFn && exprArgs.length > 0)) {
-      const what = nodeFn || fn === 'zout' ? 'node' : fn === 'zin' ? 'source' : fn === 'i' ? 'part' : 'device';
+      const what = spec?.arg === 'node' ? 'node' : spec?.arg === 'source' ? 'source' : spec?.arg === 'part' ? 'part' : 'device';
       ctx.error('bad-expression', at(call.offset, fn.length), `\`${fn}(…)\` takes ${nodeFn ? `one or two ${what} names` : `one ${what} name`}${maxExtra ? ' and an optional frequency' : ''}.`);
       quiet.push([call.offset, call.end]);
       ok = false;
@@ -285,9 +283,9 @@ function resolveExpression(ctx: RequestContext, value: ValueText, known: Measure
       const bjt = part.kind === 'npn' || part.kind === 'pnp';
       const mos = part.kind === 'nmos' || part.kind === 'pmos';
       const wrong =
-        (BJT_FUNCTIONS.has(fn) && !bjt) || (MOS_FUNCTIONS.has(fn) && !mos && !(fn === 'id' && part.kind === 'diode')) || (fn === 'gm' && !bjt && !mos);
+        (BJT_ONLY.has(fn) && !bjt) || (MOS_ONLY.has(fn) && !mos && !(fn === 'id' && part.kind === 'diode')) || (spec?.arg === 'device' && !bjt && !mos);
       if (wrong) {
-        const needs = BJT_FUNCTIONS.has(fn) ? 'a bipolar transistor' : MOS_FUNCTIONS.has(fn) ? 'a MOS transistor' : 'a transistor';
+        const needs = BJT_ONLY.has(fn) ? 'a bipolar transistor' : MOS_ONLY.has(fn) ? 'a MOS transistor' : 'a transistor';
         ctx.error('wrong-kind', loc, `\`${fn}\` needs ${needs}; \`${name}\` is ${article(part.kind)} ${part.kind}.`);
         ok = false;
       } else if (fn === 'i' && (bjt || mos)) {

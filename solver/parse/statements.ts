@@ -6,14 +6,14 @@ import type { CheckOp } from '../circuit/analyses';
 import type { DiagnosticBag } from '../circuit/diagnostic';
 import { GROUND } from '../circuit/types';
 import { emptyBody, type BlockDef, type Body, type CheckStmt, type FileUnit, type Name } from './ast';
-import { KEYWORDS } from './kinds';
+import { KEYWORDS, STATEMENTS } from '../language/vocabulary';
 import { splitLogicalLines, type LogicalLine } from './lines';
 import { LineContext, parseModelLine, parsePartLine } from './part-syntax';
 import { didYouMean } from './suggest';
 import { tokenize } from './tokens';
 
 /** Statements allowed inside `block … end`. */
-const BLOCK_STATEMENTS = new Set(['param', 'model', 'block', 'end']);
+const BLOCK_STATEMENTS = new Set(STATEMENTS.filter((s) => s.inBlock).map((s) => s.keyword));
 
 /** Deepest block nesting accepted; deeper is surely a mistake (and keeps the elaborator bounded). */
 export const MAX_BLOCK_NESTING = 32;

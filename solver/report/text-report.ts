@@ -4,6 +4,7 @@
  */
 import type { Diagnostic } from '../circuit/diagnostic';
 import type { BjtOp, ComplexFigure, DeviceOp, DiodeOp, MosOp, SolveResult } from '../result';
+import { DEVICE_FIELDS } from '../language/vocabulary';
 import { formatDb, formatDeg, formatFigure, formatPlain, formatSi } from './si-format';
 
 /** The caution every report carries (design.md: "Cautions the product states"). */
@@ -23,6 +24,16 @@ function section(title: string, lines: string[]): string[] {
   return lines.length === 0 ? [] : ['', title, ...lines];
 }
 
+/** The operating-point columns of each device table; units and meanings come from the vocabulary. */
+const BJT_COLUMNS = ['ic', 'ib', 'vbe', 'vce', 'gm', 'rpi', 'ro', 'cpi', 'cmu'] as const;
+const MOS_COLUMNS = ['id', 'vgs', 'vds', 'vov', 'vth', 'gm', 'gds', 'cgs', 'cgd'] as const;
+const DIODE_COLUMNS = ['id', 'vd', 'gd', 'cj'] as const;
+
+/** The named fields of a device's operating point, each with its unit. */
+function cells<T extends DeviceOp>(d: T, columns: readonly (keyof T & string)[]): string[] {
+  return columns.map((c) => formatSi(d[c] as number, DEVICE_FIELDS[c].unit));
+}
+
 function deviceRows(devices: Record<string, DeviceOp>): string[] {
   const bjts = Object.entries(devices).filter((e): e is [string, BjtOp] => e[1].kind === 'npn' || e[1].kind === 'pnp');
   const mos = Object.entries(devices).filter((e): e is [string, MosOp] => e[1].kind === 'nmos' || e[1].kind === 'pmos');
@@ -31,8 +42,8 @@ function deviceRows(devices: Record<string, DeviceOp>): string[] {
   if (bjts.length) {
     out.push(
       ...table(
-        ['bipolar', 'kind', 'region', 'ic', 'ib', 'vbe', 'vce', 'gm', 'rpi', 'ro', 'cpi', 'cmu'],
-        bjts.map(([n, d]) => [n, d.kind, d.region, formatSi(d.ic, 'A'), formatSi(d.ib, 'A'), formatSi(d.vbe, 'V'), formatSi(d.vce, 'V'), formatSi(d.gm, 'S'), formatSi(d.rpi, 'Ω'), formatSi(d.ro, 'Ω'), formatSi(d.cpi, 'F'), formatSi(d.cmu, 'F')]),
+        ['bipolar', 'kind', 'region', ...BJT_COLUMNS],
+        bjts.map(([n, d]) => [n, d.kind, d.region, ...cells(d, BJT_COLUMNS)]),
       ),
     );
   }
@@ -40,14 +51,14 @@ function deviceRows(devices: Record<string, DeviceOp>): string[] {
     if (out.length) out.push('');
     out.push(
       ...table(
-        ['MOS', 'kind', 'region', 'id', 'vgs', 'vds', 'vov', 'vth', 'gm', 'gds', 'cgs', 'cgd'],
-        mos.map(([n, d]) => [n, d.kind, d.region, formatSi(d.id, 'A'), formatSi(d.vgs, 'V'), formatSi(d.vds, 'V'), formatSi(d.vov, 'V'), formatSi(d.vth, 'V'), formatSi(d.gm, 'S'), formatSi(d.gds, 'S'), formatSi(d.cgs, 'F'), formatSi(d.cgd, 'F')]),
+        ['MOS', 'kind', 'region', ...MOS_COLUMNS],
+        mos.map(([n, d]) => [n, d.kind, d.region, ...cells(d, MOS_COLUMNS)]),
       ),
     );
   }
   if (diodes.length) {
     if (out.length) out.push('');
-    out.push(...table(['diode', 'region', 'id', 'vd', 'gd', 'cj'], diodes.map(([n, d]) => [n, d.region, formatSi(d.id, 'A'), formatSi(d.vd, 'V'), formatSi(d.gd, 'S'), formatSi(d.cj, 'F')])));
+    out.push(...table(['diode', 'region', ...DIODE_COLUMNS], diodes.map(([n, d]) => [n, d.region, ...cells(d, DIODE_COLUMNS)])));
   }
   return out;
 }
