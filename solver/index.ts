@@ -9,7 +9,7 @@
  */
 export { solveNetlist, solveWithOutline, solveCircuit, type SolveOptions, type CircuitRun, type OutlinedSolve } from './solve';
 export type { NetlistOutline, OutlineSymbols, OutlineMeasure, OutlineCheck, OutlineUse } from './parse/outline';
-export { parseNetlist } from './parse/parse-netlist';
+export { parseNetlist } from './elaborate/parse-netlist';
 export type * from './parse/parse-netlist';
 export { readBlockDocs, type BlockDoc, type DocumentedPin, type DocumentedParam } from './parse/block-doc';
 export { formatReport, CAUTION } from './report/text-report';
@@ -20,3 +20,13 @@ export type * from './circuit/types';
 export type * from './circuit/analyses';
 export type { Diagnostic, Severity, SourceLoc } from './circuit/diagnostic';
 export { GROUND, DEFAULT_OPTIONS } from './circuit/types';
+// The language's vocabulary tables and the readers the bench's editor and panels share with the parser.
+export {
+  STATEMENTS, ANALYSIS_SPECS, FUNCTIONS, FIGURES, DEVICE_FIELDS, PIN_DOCS, MISMATCH_KEYS, functionSpec, takesNames,
+  type StatementSpec, type AnalysisSpec, type AnalysisKind, type FunctionSpec, type ArgumentKind, type FigureSpec, type QuantitySpec, type QuantityUnit,
+} from './language/vocabulary';
+export { PART_KINDS, MODEL_KEYS, MODEL_KINDS, OPTION_KEYS, modelFamily, type PartKindSpec, type ModelFamily } from './language/part-kinds';
+export { tokenize, type Token } from './parse/tokens';
+export { parseQuantity } from './parse/quantity';
+export { INFINITE_OHMS } from './report/si-format';
+export { corner, unity, CORNER_DB } from './measure/curve';

@@ -4,6 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { solveNetlist } from './index';
+import { expectNearlyEqual } from './testing/nearly-equal';
 
 const RC = 'v1: vsrc(a, gnd) 0 ac=1\nr1: res(a, b) 1k\nc1: cap(b, gnd) 1n\n';
 const lines = (text: string) => solveNetlist(text).errors.map((e) => `${e.line}: ${e.message}`);
@@ -117,7 +118,7 @@ describe('(e) a bare param stands in every slot that takes an expression', () =>
     expect(byParam.measures).toEqual(byNumber.measures);
     // 1 kΩ in parallel with 1 nF at 1 MHz seen from b: |Z| = R/√(1 + (ωRC)²) (Ohm's law for impedances).
     const w = 2 * Math.PI * 1e6;
-    expect(byParam.measures.z / (1e3 / Math.sqrt(1 + (w * 1e3 * 1e-9) ** 2)) - 1).toBeLessThan(1e-9);
+    expectNearlyEqual(byParam.measures.z, 1e3 / Math.sqrt(1 + (w * 1e3 * 1e-9) ** 2), 1e-9, 0);
   });
 
   it('as the frequency of zout in the editor syntax `measure z = zout(x, fhi)`, complex at 1 MHz', () => {

@@ -103,3 +103,8 @@ export function acSweep(system: LinearSystem, freqs: readonly number[], excitati
   const solver = createAcSolver(system);
   return freqs.map((f) => solver.solve(f, [excitation])[0]);
 }
+
+/** The engine flags a solve whose matrix could not be factored (an extra member beyond the contract). */
+export function isSingular(solution: object): boolean {
+  return (solution as { singular?: boolean }).singular === true;
+}

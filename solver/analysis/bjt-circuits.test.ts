@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import type { Circuit } from '../circuit/types';
-import type { BjtOp } from '../result';
+import type { BjtOp } from '../circuit/result';
 import { BOLTZMANN, ELEMENTARY_CHARGE } from '../devices/temperature';
 import { createAcSolver } from './ac-solve';
 import { dcSweep } from './dc-sweep';
@@ -12,8 +12,8 @@ import type { OperatingPoint } from './engine-api';
 import { isOpFailure, solveOperatingPoint } from './operating-point';
 import { linearize } from './small-signal';
 import { bjtModel, circuitOf } from './test-circuits';
+import { expectNearlyEqual } from '../testing/nearly-equal';
 
-const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 function op(c: Circuit): OperatingPoint {
   const r = solveOperatingPoint(c);
   if (isOpFailure(r)) throw new Error(r.errors.map((e) => e.message).join('; '));
@@ -36,9 +36,9 @@ describe('diode-connected bipolar', () => {
       const vt = (1.380649e-23 * t) / 1.602176634e-19;
       // IS(T) per the model's temperature law (T0 = 300.15 K); at 27 °C it is IS itself.
       const isT = 1e-16 * Math.pow(t / 300.15, 3) * Math.exp(((1.602176634e-19 * 1.12) / 1.380649e-23) * (1 / 300.15 - 1 / t));
-      expect(rel(q.vbe, vt * Math.log(q.ic / isT + 1))).toBeLessThan(1e-12);
+      expectNearlyEqual(q.vbe, vt * Math.log(q.ic / isT + 1), 1e-12, 0);
       // KCL at the node: IREF = IC + IB = IC·(1 + 1/β).
-      expect(rel(q.ic * (1 + 1 / 100), iref)).toBeLessThan(1e-12);
+      expectNearlyEqual(q.ic * (1 + 1 / 100), iref, 1e-12, 0);
       expect(q.region).toBe('active');
     }
     expect(BOLTZMANN).toBe(1.380649e-23);
@@ -56,11 +56,11 @@ describe('diode-connected bipolar', () => {
     );
     const q = bjt(op(c), 'q1');
     const vt = thermal();
-    expect(rel(q.gm, q.ic / vt)).toBeLessThan(1e-9);
-    expect(rel(q.rpi, 100 / q.gm)).toBeLessThan(1e-9);
+    expectNearlyEqual(q.gm, q.ic / vt, 1e-9, 0);
+    expectNearlyEqual(q.rpi, 100 / q.gm, 1e-9, 0);
     expect(q.ro).toBe(1e30);
     // Cπ = Cje + gm·τF, Cμ = Cjc (Sedra & Smith, 7th ed., §10.2, from memory).
-    expect(rel(q.cpi, 1e-12 + q.gm * 1e-10)).toBeLessThan(1e-12);
+    expectNearlyEqual(q.cpi, 1e-12 + q.gm * 1e-10, 1e-12, 0);
     expect(q.cmu).toBe(0.5e-12);
   });
 
@@ -74,8 +74,8 @@ describe('diode-connected bipolar', () => {
       { minG: 0 },
     );
     const q = bjt(op(c), 'q1');
-    expect(rel(q.ro, (50 + 5) / q.ic)).toBeLessThan(1e-9);
-    expect(rel(q.ic, 1e-16 * Math.exp(0.65 / thermal()) * (1 + 5 / 50))).toBeLessThan(1e-6);
+    expectNearlyEqual(q.ro, (50 + 5) / q.ic, 1e-9, 0);
+    expectNearlyEqual(q.ic, 1e-16 * Math.exp(0.65 / thermal()) * (1 + 5 / 50), 1e-6, 0);
   });
 });
 
@@ -101,7 +101,7 @@ describe('two-transistor current mirror', () => {
         );
         const o = op(c);
         const io = bjt(o, 'q2').ic;
-        expect(rel(io / 1e-4, 1 / (1 + 2 / beta))).toBeLessThan(1e-9);
+        expectNearlyEqual(io / 1e-4, 1 / (1 + 2 / beta), 1e-9, 0);
         expect(bjt(o, 'q2').region).toBe('active');
       }
     }
@@ -141,20 +141,20 @@ describe('resistor-tail differential pair', () => {
 
   it('has adm = −gm·RC exactly per half-circuit (Sedra & Smith, Microelectronic Circuits, 7th ed., differential-amplifier chapter, differential half circuit, from memory)', () => {
     const adm = dm.v('outa').re - dm.v('outb').re;
-    expect(rel(adm, -q1.gm * rc)).toBeLessThan(1e-9);
+    expectNearlyEqual(adm, -q1.gm * rc, 1e-9, 0);
     expect(Math.abs(dm.v('tail').re)).toBeLessThan(1e-12); // the tail is an AC ground for the differential mode
   });
 
   it('has acm = −gm·RC / (1 + 2·RE·(gm + 1/rπ)) (Sedra & Smith, Microelectronic Circuits, 7th ed., differential-amplifier chapter, common-mode half circuit, from memory)', () => {
     const acm = (cm.v('outa').re + cm.v('outb').re) / 2;
-    expect(rel(acm, (-q1.gm * rc) / (1 + 2 * re * (q1.gm + 1 / q1.rpi)))).toBeLessThan(1e-9);
+    expectNearlyEqual(acm, (-q1.gm * rc) / (1 + 2 * re * (q1.gm + 1 / q1.rpi)), 1e-9, 0);
   });
 
   it('biases both halves equally at IC ≈ α·(0 − VBE − VEE)/(2·RE) (KVL around the tail, common practice)', () => {
     const q2 = bjt(o, 'q2');
-    expect(rel(q1.ic, q2.ic)).toBeLessThan(1e-12);
+    expectNearlyEqual(q1.ic, q2.ic, 1e-12, 0);
     const vtail = o.report.nodes.tail;
-    expect(rel(2 * q1.ie, (vtail + 10) / re)).toBeLessThan(1e-12);
+    expectNearlyEqual(2 * q1.ie, (vtail + 10) / re, 1e-12, 0);
   });
 });
 
@@ -192,6 +192,6 @@ describe('base resistance', () => {
     // The external VBE includes the IB·rb drop.
     const [s] = createAcSolver(linearize(c, o)).solve(0, [{ sources: new Map([['vb', { re: 1, im: 0 }]]) }]);
     const ib = -s.branch('vb').re; // p→n through the source is minus the current into the base
-    expect(rel(1 / ib, 200 + q.rpi)).toBeLessThan(1e-9);
+    expectNearlyEqual(1 / ib, 200 + q.rpi, 1e-9, 0);
   });
 });

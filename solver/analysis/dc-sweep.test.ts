@@ -2,7 +2,7 @@
  * DC transfer sweeps: warm-started points, fallback, and clean errors.
  */
 import { describe, expect, it } from 'vitest';
-import type { DiodeOp, MosOp } from '../result';
+import type { DiodeOp, MosOp } from '../circuit/result';
 import { thermalVoltage } from '../devices/temperature';
 import { dcSweep } from './dc-sweep';
 import type { OperatingPoint } from './engine-api';

@@ -10,7 +10,8 @@
  */
 import type { Diagnostic } from '../circuit/diagnostic';
 import type { Circuit } from '../circuit/types';
-import type { OpResult } from '../result';
+import type { OpResult } from '../circuit/result';
+import type { Phasor } from '../numeric/complex';
 
 /** A converged DC operating point. */
 export interface OperatingPoint {
@@ -52,8 +53,8 @@ export interface LinearSystem {
   sources: Map<string, { kind: 'vsrc'; row: number } | { kind: 'isrc'; from: number; to: number }>;
 }
 
-/** Complex phasor as a pair, to avoid allocation in the hot loop. */
-export interface Phasor { re: number; im: number }
+/** Complex phasor as a pair, to avoid allocation in the hot loop (declared in numeric/complex.ts). */
+export type { Phasor };
 
 /** What drives the AC system in one solve. */
 export interface Excitation {

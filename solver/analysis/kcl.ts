@@ -5,7 +5,7 @@
  * solution and the report's sign conventions.
  */
 import { GROUND, type Circuit } from '../circuit/types';
-import type { OpResult } from '../result';
+import type { OpResult } from '../circuit/result';
 
 /** Net current leaving a node and the sum of the magnitudes that make it up. */
 export interface KclBalance {

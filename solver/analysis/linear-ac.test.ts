@@ -12,10 +12,10 @@ import type { OperatingPoint, Phasor } from './engine-api';
 import { isOpFailure, solveOperatingPoint } from './operating-point';
 import { linearize } from './small-signal';
 import { circuitOf, type PartSpec } from './test-circuits';
+import { expectNearlyEqual } from '../testing/nearly-equal';
 
 const mag = (p: Phasor) => Math.hypot(p.re, p.im);
 const phaseDeg = (p: Phasor) => (Math.atan2(p.im, p.re) * 180) / Math.PI;
-const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
 function op(c: Circuit): OperatingPoint {
   const r = solveOperatingPoint(c);
@@ -34,10 +34,10 @@ describe('resistive divider', () => {
       { minG: 0 },
     );
     const r = op(c).report;
-    expect(rel(r.nodes.out, 7.5)).toBeLessThan(1e-12);
-    expect(rel(r.parts.r1.i, 10 / 4000)).toBeLessThan(1e-12);
+    expectNearlyEqual(r.nodes.out, 7.5, 1e-12, 0);
+    expectNearlyEqual(r.parts.r1.i, 10 / 4000, 1e-12, 0);
     // The source delivers 2.5 mA, i.e. −2.5 mA p→n through it (§5 convention).
-    expect(rel(r.sources.v1.i, -10 / 4000)).toBeLessThan(1e-12);
+    expectNearlyEqual(r.sources.v1.i, -10 / 4000, 1e-12, 0);
     expect(r.sources.v1.v).toBe(10);
   });
 
@@ -53,7 +53,7 @@ describe('resistive divider', () => {
     );
     // Thevenin: 7.5 V behind 750 Ω into g (common practice).
     const expected = 7.5 / (1 + 750 * g);
-    expect(rel(op(c).report.nodes.out, expected)).toBeLessThan(1e-12);
+    expectNearlyEqual(op(c).report.nodes.out, expected, 1e-12, 0);
   });
 });
 
@@ -82,9 +82,9 @@ describe('RC low-pass', () => {
 
   it('passes DC unattenuated and falls 20 dB/decade far above the corner', () => {
     const [dc, hi] = acSweep(sys, [0, 1e3 / (2 * Math.PI * R * C)], drive);
-    expect(rel(mag(dc.v('out')), 1)).toBeLessThan(1e-12);
+    expectNearlyEqual(mag(dc.v('out')), 1, 1e-12, 0);
     // |H| = 1/√(1 + (f/fc)²) at f = 1000·fc.
-    expect(rel(mag(hi.v('out')), 1 / Math.sqrt(1 + 1e6))).toBeLessThan(1e-12);
+    expectNearlyEqual(mag(hi.v('out')), 1 / Math.sqrt(1 + 1e6), 1e-12, 0);
   });
 });
 
@@ -112,18 +112,18 @@ describe('series RLC', () => {
   it('resonates at 1/(2π√LC) with current V/R and |v(C)| = Q·V', () => {
     const [s] = solver.solve(f0, [drive]);
     const i = s.branch('l1');
-    expect(rel(i.re, 1 / R)).toBeLessThan(1e-9);
+    expectNearlyEqual(i.re, 1 / R, 1e-9, 0);
     expect(Math.abs(i.im)).toBeLessThan(1e-9 / R);
-    expect(rel(mag(s.v('top')), Q)).toBeLessThan(1e-9);
+    expectNearlyEqual(mag(s.v('top')), Q, 1e-9, 0);
     // The source's own current is the same, p→n through the source, so negative.
-    expect(rel(s.branch('vin').re, -1 / R)).toBeLessThan(1e-9);
+    expectNearlyEqual(s.branch('vin').re, -1 / R, 1e-9, 0);
   });
 
   it('has its −3 dB current points where Q predicts', () => {
     const k = 1 / (2 * Q);
     for (const f of [f0 * (Math.sqrt(1 + k * k) - k), f0 * (Math.sqrt(1 + k * k) + k)]) {
       const [s] = solver.solve(f, [drive]);
-      expect(rel(mag(s.branch('l1')), 1 / (R * Math.SQRT2))).toBeLessThan(1e-9);
+      expectNearlyEqual(mag(s.branch('l1')), 1 / (R * Math.SQRT2), 1e-9, 0);
     }
   });
 });
@@ -143,9 +143,9 @@ describe('isrc and injection excitations', () => {
       { sources: new Map([['i1', { re: 1e-3, im: 0 }]]) },
       { injections: new Map([['a', { re: 0, im: 1e-3 }]]) },
     ]);
-    expect(rel(viaSource.v('a').re, -0.1)).toBeLessThan(1e-12);
-    expect(rel(viaSource.v('b').re, 0.2)).toBeLessThan(1e-12);
-    expect(rel(injected.v('a').im, 0.1)).toBeLessThan(1e-12);
+    expectNearlyEqual(viaSource.v('a').re, -0.1, 1e-12, 0);
+    expectNearlyEqual(viaSource.v('b').re, 0.2, 1e-12, 0);
+    expectNearlyEqual(injected.v('a').im, 0.1, 1e-12, 0);
     expect(injected.v(GROUND)).toEqual({ re: 0, im: 0 });
   });
 });

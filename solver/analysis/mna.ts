@@ -7,7 +7,7 @@
  * Row i of the system is KCL at node i written as "currents leaving the node through the parts
  * = 0", or the branch equation of branch i.
  */
-import { GROUND, type Circuit } from '../circuit/types';
+import { GROUND, partNodes, type Circuit } from '../circuit/types';
 
 /** Index of a ground connection: stamps skip it. */
 export const GROUND_INDEX = -1;
@@ -68,32 +68,6 @@ export function buildLayout(circuit: Circuit): MnaLayout {
     }
   }
   return { size: rowNames.length, voltageCount, nodeIndex, branchIndex, internalBase, rowLabels, rowNames };
-}
-
-/** The nodes a part connects to, in pin order. */
-export function partNodes(p: Circuit['parts'][number]): string[] {
-  switch (p.kind) {
-    case 'res':
-    case 'cap':
-    case 'ind':
-      return [p.a, p.b];
-    case 'vsrc':
-      return [p.p, p.n];
-    case 'isrc':
-      return [p.from, p.to];
-    case 'vcvs':
-      return [p.p, p.n, p.cp, p.cn];
-    case 'vccs':
-      return [p.from, p.to, p.cp, p.cn];
-    case 'npn':
-    case 'pnp':
-      return [p.c, p.b, p.e];
-    case 'nmos':
-    case 'pmos':
-      return [p.d, p.g, p.s, p.b];
-    case 'diode':
-      return [p.a, p.k];
-  }
 }
 
 /** Row of a node, or {@link GROUND_INDEX}. */

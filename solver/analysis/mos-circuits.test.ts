@@ -4,14 +4,14 @@
  */
 import { describe, expect, it } from 'vitest';
 import type { Circuit } from '../circuit/types';
-import type { MosOp } from '../result';
+import type { MosOp } from '../circuit/result';
 import { createAcSolver } from './ac-solve';
 import type { OperatingPoint } from './engine-api';
 import { isOpFailure, solveOperatingPoint } from './operating-point';
 import { linearize } from './small-signal';
 import { circuitOf, mosModel } from './test-circuits';
+import { expectNearlyEqual } from '../testing/nearly-equal';
 
-const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 function op(c: Circuit): OperatingPoint {
   const r = solveOperatingPoint(c);
   if (isOpFailure(r)) throw new Error(r.errors.map((e) => e.message).join('; '));
@@ -42,11 +42,11 @@ describe('square law', () => {
       const m = mos(o, 'm1');
       const vov = 0.3;
       expect(m.region).toBe('saturation');
-      expect(rel(m.id, 0.5 * K * vov * vov * (1 + 0.05 * 2))).toBeLessThan(1e-12);
-      expect(rel(m.gm, (2 * m.id) / vov)).toBeLessThan(1e-12);
+      expectNearlyEqual(m.id, 0.5 * K * vov * vov * (1 + 0.05 * 2), 1e-12, 0);
+      expectNearlyEqual(m.gm, (2 * m.id) / vov, 1e-12, 0);
       // gds = λ·ID/(1 + λVDS), the exact slope of the saturation law (Razavi, 2nd ed., ch. 2, from memory).
-      expect(rel(m.gds, (0.05 * m.id) / (1 + 0.05 * 2))).toBeLessThan(1e-12);
-      expect(rel(m.vov, vov)).toBeLessThan(1e-12);
+      expectNearlyEqual(m.gds, (0.05 * m.id) / (1 + 0.05 * 2), 1e-12, 0);
+      expectNearlyEqual(m.vov, vov, 1e-12, 0);
       expect(o.warnings).toEqual([]);
     }
   });
@@ -55,7 +55,7 @@ describe('square law', () => {
     const o = op(biased('nmos', 1.5, 0.2));
     const m = mos(o, 'm1');
     expect(m.region).toBe('triode');
-    expect(rel(m.id, K * (1.0 * 0.2 - 0.02))).toBeLessThan(1e-12);
+    expectNearlyEqual(m.id, K * (1.0 * 0.2 - 0.02), 1e-12, 0);
     expect(o.warnings.map((w) => w.code)).toEqual(['mos-triode']);
     expect(o.warnings[0].line).toBe(4);
   });
@@ -72,9 +72,9 @@ describe('square law', () => {
     const o = op(biased('nmos', 1.5, 3, model, -1));
     const m = mos(o, 'm1');
     const vth = 0.5 + 0.45 * (Math.sqrt(0.8 + 1) - Math.sqrt(0.8));
-    expect(rel(m.vth, vth)).toBeLessThan(1e-12);
-    expect(rel(m.id, 0.5 * K * (1.5 - vth) ** 2)).toBeLessThan(1e-12);
-    expect(rel(m.gmb, (m.gm * 0.45) / (2 * Math.sqrt(0.8 + 1)))).toBeLessThan(1e-12);
+    expectNearlyEqual(m.vth, vth, 1e-12, 0);
+    expectNearlyEqual(m.id, 0.5 * K * (1.5 - vth) ** 2, 1e-12, 0);
+    expectNearlyEqual(m.gmb, (m.gm * 0.45) / (2 * Math.sqrt(0.8 + 1)), 1e-12, 0);
   });
 });
 
@@ -95,7 +95,7 @@ describe('common-source stage', () => {
     expect(m.region).toBe('saturation');
     const [s] = createAcSolver(linearize(c, o)).solve(0, [{ sources: new Map([['vin', { re: 1, im: 0 }]]) }]);
     const ro = 1 / m.gds;
-    expect(rel(s.v('out').re, (-m.gm * rd * ro) / (rd + ro))).toBeLessThan(1e-9);
+    expectNearlyEqual(s.v('out').re, (-m.gm * rd * ro) / (rd + ro), 1e-9, 0);
   });
 
   it('diode-connected nmos fed by a current settles at Vov = √(2·I/K) (Razavi, 2nd ed., ch. 2 square law solved for Vov, from memory)', () => {
@@ -104,6 +104,6 @@ describe('common-source stage', () => {
       { kind: 'nmos', name: 'm1', d: 'x', g: 'x', s: 'gnd', b: 'gnd', model: mosModel(), w: 4e-6, l: 1e-6, m: 1 },
     ]);
     const o = op(c);
-    expect(rel(o.report.nodes.x, 0.5 + Math.sqrt((2 * 50e-6) / (100e-6 * 4)))).toBeLessThan(1e-6);
+    expectNearlyEqual(o.report.nodes.x, 0.5 + Math.sqrt((2 * 50e-6) / (100e-6 * 4)), 1e-6, 0);
   });
 });

@@ -15,7 +15,7 @@
  */
 import { diagnostic, type Diagnostic, type DiagnosticCode, type SourceLoc } from '../circuit/diagnostic';
 import type { Circuit } from '../circuit/types';
-import type { BjtOp, DeviceOp, DiodeOp, MosOp, OpResult } from '../result';
+import type { BjtOp, DeviceOp, DiodeOp, MosOp, OpResult } from '../circuit/result';
 import { bjtCpi, bjtSmallSignal, evalBjt, finiteResistance, RESISTANCE_CAP } from '../devices/bjt';
 import { evalDiode } from '../devices/diode';
 import { evalMos } from '../devices/mos';

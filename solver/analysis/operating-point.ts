@@ -8,9 +8,9 @@
  * ramped from 0 to 100 %) are the standard continuation methods for hard DC problems.
  */
 import { diagnostic, type Diagnostic, type DiagnosticCode, type SourceLoc } from '../circuit/diagnostic';
-import type { Circuit } from '../circuit/types';
+import { partNodes, type Circuit } from '../circuit/types';
 import type { OperatingPoint, OpFailure } from './engine-api';
-import { buildLayout, partNodes, type MnaLayout } from './mna';
+import { buildLayout, type MnaLayout } from './mna';
 import { NewtonWorkspace, runNewton, type IterationWatch } from './newton';
 import { SettleWatch, unbalancedNodes, type Unbalanced, type Unsettled } from './settle-watch';
 import { formatSi } from '../report/si-format';

@@ -9,6 +9,7 @@ import { bjtModel, circuitOf } from './test-circuits';
 import { inputImpedance, outputImpedance } from '../measure/impedance';
 import { logSweep } from './frequency';
 import { solveNetlist } from '../solve';
+import { expectNearlyEqual } from '../testing/nearly-equal';
 
 /** Resistor-tail npn pair: RC = 5 kΩ per side, RT = 10 kΩ, ±10 V rails (default model, va = ∞). */
 function pair(rc = 5e3, rt = 10e3, cjc = 0): Circuit {
@@ -49,17 +50,17 @@ describe('ports', () => {
     const acmExpected = (-q1.gm * rc) / (1 + (q1.gm + 1 / q1.rpi) * 2 * rt);
     const diff = analyzePorts(system, solver, req('outb'));
     expect(diff.result?.output).toBe('differential');
-    expect(diff.result!.adm.re / (-q1.gm * rc) - 1).toBeCloseTo(0, 6);
+    expectNearlyEqual(diff.result!.adm.re, -q1.gm * rc, 5e-7, 0);
     // voc = (v(outa) + v(outb))/2 moves like one side: the same acm as the single-ended output.
-    expect(diff.result!.acm.re / acmExpected - 1).toBeCloseTo(0, 6);
-    expect(diff.result!.cmrr / ((q1.gm * rc) / Math.abs(acmExpected)) - 1).toBeCloseTo(0, 6);
+    expectNearlyEqual(diff.result!.acm.re, acmExpected, 5e-7, 0);
+    expectNearlyEqual(diff.result!.cmrr, (q1.gm * rc) / Math.abs(acmExpected), 5e-7, 0);
     expect(diff.result!.cmrr_db).toBeCloseTo(20 * Math.log10(diff.result!.cmrr), 9);
 
     const single = analyzePorts(system, solver, req());
     expect(single.result!.output).toBe('single-ended');
-    expect(single.result!.adm.re / ((-q1.gm * rc) / 2) - 1).toBeCloseTo(0, 6);
-    expect(single.result!.acm.re / acmExpected - 1).toBeCloseTo(0, 6);
-    expect(single.result!.cmrr / Math.abs(single.result!.adm.re / single.result!.acm.re) - 1).toBeCloseTo(0, 9);
+    expectNearlyEqual(single.result!.adm.re, (-q1.gm * rc) / 2, 5e-7, 0);
+    expectNearlyEqual(single.result!.acm.re, acmExpected, 5e-7, 0);
+    expectNearlyEqual(single.result!.cmrr, Math.abs(single.result!.adm.re / single.result!.acm.re), 5e-10, 0);
     expect(single.result!.adm.phase_deg).toBe(180);
     expect(single.result!.conventions).toMatch(/vid = va − vb/);
   });
@@ -82,7 +83,7 @@ describe('ports', () => {
     const sweep = logSweep(1e3, 1e10, 10);
     const out = analyzePorts(system, solver, req(), sweep);
     expect(out.curves).toBeDefined();
-    expect(out.curves!.adm.mag[0] / out.result!.adm.mag - 1).toBeCloseTo(0, 4);
+    expectNearlyEqual(out.curves!.adm.mag[0], out.result!.adm.mag, 5e-5, 0);
     expect(out.curves!.adm.mag[sweep.length - 1]).toBeLessThan(out.curves!.adm.mag[0] / 10);
     expect(out.curves!.cmrr.phase_deg.every((p) => p === 0)).toBe(true);
   });
@@ -119,9 +120,9 @@ describe('zin and zout', () => {
     ]);
     const { system, solver } = solved(c);
     // min_g (1e-12 S from every node to ground) leaks in parallel: a few parts in 1e9.
-    expect(inputImpedance(system, solver, 'vs', 0).re / 4.7e3 - 1).toBeCloseTo(0, 6);
-    expect(inputImpedance(system, solver, 'is', 0).re / 2.2e3 - 1).toBeCloseTo(0, 6);
-    expect(inputImpedance(system, solver, 'is2', 0).re / 330 - 1).toBeCloseTo(0, 6);
+    expectNearlyEqual(inputImpedance(system, solver, 'vs', 0).re, 4.7e3, 5e-7, 0);
+    expectNearlyEqual(inputImpedance(system, solver, 'is', 0).re, 2.2e3, 5e-7, 0);
+    expectNearlyEqual(inputImpedance(system, solver, 'is2', 0).re, 330, 5e-7, 0);
     expect(() => inputImpedance(system, solver, 'vz', 0)).toThrow(/no independent source/);
   });
 
@@ -135,8 +136,8 @@ describe('zin and zout', () => {
     const { system, solver } = solved(c);
     const f = 1e5;
     const z = inputImpedance(system, solver, 'vs', f);
-    expect(z.re / 1e3 - 1).toBeCloseTo(0, 6);
-    expect(z.im / (-1 / (2 * Math.PI * f * 1e-9)) - 1).toBeCloseTo(0, 6);
+    expectNearlyEqual(z.re, 1e3, 5e-7, 0);
+    expectNearlyEqual(z.im, -1 / (2 * Math.PI * f * 1e-9), 5e-7, 0);
   });
 
   // Divider Thevenin resistance: R1‖R2 with the source shorted.
@@ -147,7 +148,7 @@ describe('zin and zout', () => {
       { kind: 'res', name: 'r2', a: 'o', b: 'gnd', value: 40e3 },
     ]);
     const { system, solver } = solved(c);
-    expect(outputImpedance(system, solver, 'o', 0).re / 8e3 - 1).toBeCloseTo(0, 6);
+    expectNearlyEqual(outputImpedance(system, solver, 'o', 0).re, 8e3, 5e-7, 0);
     expect(() => outputImpedance(system, solver, 'gnd', 0)).toThrow(/reference node/);
   });
 });

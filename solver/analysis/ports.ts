@@ -14,11 +14,11 @@
 import { diagnostic, type Diagnostic, type DiagnosticCode, type SourceLoc } from '../circuit/diagnostic';
 import { GROUND } from '../circuit/types';
 import type { PortsRequest } from '../circuit/analyses';
-import type { Curve, PortsResult } from '../result';
-import type { AcSolution, AcSolver, Excitation, LinearSystem, Phasor } from './engine-api';
-import { cadd, cscale, csub, cx, decibels, magnitude, toFigure } from '../measure/complex';
-import { curveFromPhasors } from '../measure/curve';
-import { isSingular } from '../measure/impedance';
+import type { Curve, PortsResult } from '../circuit/result';
+import type { AcSolution, AcSolver, Excitation, LinearSystem } from './engine-api';
+import { cadd, cscale, csub, cx, decibels, magnitude, toFigure, type Phasor } from '../numeric/complex';
+import { curveFromPhasors } from '../numeric/phasor-curve';
+import { isSingular } from './ac-solve';
 
 /** Largest CMRR reported (300 dB): stands for "unbounded" when acm is exactly zero. */
 export const CMRR_CAP = 1e15;

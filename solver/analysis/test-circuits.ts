@@ -3,8 +3,7 @@
  * plain objects, nodes collected in first-appearance order, default models filled in.
  */
 import type { SourceLoc } from '../circuit/diagnostic';
-import { DEFAULT_OPTIONS, GROUND, type BjtModel, type Circuit, type DiodeModel, type MosModel, type Part, type SolverOptions } from '../circuit/types';
-import { partNodes } from './mna';
+import { DEFAULT_OPTIONS, GROUND, partNodes, type BjtModel, type Circuit, type DiodeModel, type MosModel, type Part, type SolverOptions } from '../circuit/types';
 
 /** The netlist language's built-in default bipolar model (va = ∞, no capacitances). */
 export function bjtModel(overrides: Partial<BjtModel> = {}): BjtModel {

@@ -4,7 +4,7 @@
  * ideal current source open, MOS gate insulated).
  */
 import { describe, expect, it } from 'vitest';
-import { parseNetlist } from '../parse/index';
+import { parseNetlist } from '../elaborate/parse-netlist';
 
 function codes(text: string): string[] {
   return parseNetlist(text).diagnostics.map((d) => d.code);

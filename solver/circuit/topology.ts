@@ -7,8 +7,7 @@
  *    and contradicts itself unless its voltages happen to sum to zero.
  */
 import type { DiagnosticBag } from './diagnostic';
-import { partNodes } from './elaborate';
-import { GROUND, type Part } from './types';
+import { GROUND, partNodes, type Part } from './types';
 
 /** Union-find over node indices with path halving and union by size. */
 export class UnionFind {

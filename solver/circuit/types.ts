@@ -132,3 +132,20 @@ export interface Circuit {
   parts: Part[];
   options: SolverOptions;
 }
+
+/**
+ * The nodes a part connects to, in its canonical pin order: the order in which the elaborator
+ * meets a part's nodes (first appearance) and the order the engine numbers them in.
+ */
+export function partNodes(p: Part): string[] {
+  switch (p.kind) {
+    case 'res': case 'cap': case 'ind': return [p.a, p.b];
+    case 'vsrc': return [p.p, p.n];
+    case 'isrc': return [p.from, p.to];
+    case 'vcvs': return [p.p, p.n, p.cp, p.cn];
+    case 'vccs': return [p.from, p.to, p.cp, p.cn];
+    case 'npn': case 'pnp': return [p.c, p.b, p.e];
+    case 'nmos': case 'pmos': return [p.d, p.g, p.s, p.b];
+    case 'diode': return [p.a, p.k];
+  }
+}

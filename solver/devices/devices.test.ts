@@ -11,9 +11,9 @@ import { diodeParams, evalDiode } from './diode';
 import { criticalVoltage, limitJunctionStep } from './junction';
 import { evalMos, mosParams, newMosEval } from './mos';
 import { saturationCurrentAt, thermalVoltage } from './temperature';
+import { expectNearlyEqual } from '../testing/nearly-equal';
 
 const loc = { line: 1, col: 1 };
-const close = (a: number, b: number, tol: number, floor = 0) => Math.abs(a - b) <= tol * Math.max(Math.abs(a), Math.abs(b)) + floor;
 const newBjtEval = (): BjtEval => ({ ic: 0, ib: 0, dIcDvbe: 0, dIcDvbc: 0, dIbDvbe: 0, dIbDvbc: 0 });
 
 describe('temperature', () => {
@@ -26,7 +26,7 @@ describe('temperature', () => {
     expect(saturationCurrentAt(1e-16, 1.12, 3, 27)).toBe(1e-16);
     const t = 398.15;
     const expected = 1e-16 * Math.pow(t / 300.15, 3) * Math.exp(((1.602176634e-19 * 1.12) / 1.380649e-23) * (1 / 300.15 - 1 / t));
-    expect(close(saturationCurrentAt(1e-16, 1.12, 3, 125), expected, 1e-14)).toBe(true);
+    expectNearlyEqual(saturationCurrentAt(1e-16, 1.12, 3, 125), expected, 1e-14, 0);
   });
 
   it('gives dVBE/dT = (VBE − eg − pt·VT)/T at constant current (Razavi, Design of Analog CMOS Integrated Circuits, 2nd ed., ch. 12, bandgap references, from memory)', () => {
@@ -35,7 +35,7 @@ describe('temperature', () => {
       const h = 1e-3;
       const slope = (vbe(27 + h, is) - vbe(27 - h, is)) / (2 * h);
       const expected = (vbe(27, is) - 1.12 - 3 * thermalVoltage(27)) / 300.15;
-      expect(close(slope, expected, 1e-6)).toBe(true);
+      expectNearlyEqual(slope, expected, 1e-6, 0);
     }
     // A VBE near 0.65 V falls by roughly 2 mV/°C, as practitioners expect (common practice).
     const typical = (vbe(28, 1e-14) - vbe(26, 1e-14)) / 2;
@@ -57,10 +57,10 @@ describe('bipolar transport model', () => {
         const fd = (f: (e: BjtEval) => number, dBe: number, dBc: number) =>
           (f(at(vbe + dBe * h, vbc + dBc * h)) - f(at(vbe - dBe * h, vbc - dBc * h))) / (2 * h);
         const floor = 1e-14;
-        expect(close(ev.dIcDvbe, fd((e) => e.ic, 1, 0), 1e-5, floor)).toBe(true);
-        expect(close(ev.dIcDvbc, fd((e) => e.ic, 0, 1), 1e-5, floor)).toBe(true);
-        expect(close(ev.dIbDvbe, fd((e) => e.ib, 1, 0), 1e-5, floor)).toBe(true);
-        expect(close(ev.dIbDvbc, fd((e) => e.ib, 0, 1), 1e-5, floor)).toBe(true);
+        expectNearlyEqual(ev.dIcDvbe, fd((e) => e.ic, 1, 0), 1e-5, floor);
+        expectNearlyEqual(ev.dIcDvbc, fd((e) => e.ic, 0, 1), 1e-5, floor);
+        expectNearlyEqual(ev.dIbDvbe, fd((e) => e.ib, 1, 0), 1e-5, floor);
+        expectNearlyEqual(ev.dIbDvbc, fd((e) => e.ib, 0, 1), 1e-5, floor);
       }),
       { numRuns: 300, seed: 11 },
     );
@@ -71,12 +71,12 @@ describe('bipolar transport model', () => {
     const nvt = 1.02 * thermalVoltage(27);
     const ev = evalBjt(p, 0.7, -3, newBjtEval());
     const is = 1.5e-16;
-    expect(close(ev.ic, is * Math.exp(0.7 / nvt), 1e-9)).toBe(true); // up to IS/βR
+    expectNearlyEqual(ev.ic, is * Math.exp(0.7 / nvt), 1e-9, 0); // up to IS/βR
     // IB = IC/β up to the IS-sized leakage terms (IS/βR ≈ 1e-16 A against 6e-7 A).
-    expect(close(ev.ib, ev.ic / 80, 1e-9)).toBe(true);
+    expectNearlyEqual(ev.ib, ev.ic / 80, 1e-9, 0);
     const ss = bjtSmallSignal(ev);
-    expect(close(ss.gm, ev.ic / nvt, 1e-9)).toBe(true);
-    expect(close(1 / ss.gpi, 80 / ss.gm, 1e-12)).toBe(true);
+    expectNearlyEqual(ss.gm, ev.ic / nvt, 1e-9, 0);
+    expectNearlyEqual(1 / ss.gpi, 80 / ss.gm, 1e-12, 0);
   });
 
   it('mirrors a pnp exactly: same Jacobian, negated currents', () => {
@@ -112,10 +112,10 @@ describe('diode', () => {
     const nvt = 1.8 * thermalVoltage(27);
     for (const vd of [-1, 0, 0.3, 0.6, 0.9]) {
       const ev = evalDiode(p, vd, { id: 0, gd: 0 });
-      expect(close(ev.id, 2e-14 * Math.expm1(vd / nvt), 1e-12)).toBe(true);
+      expectNearlyEqual(ev.id, 2e-14 * Math.expm1(vd / nvt), 1e-12, 0);
       const h = 1e-7;
       const fd = (evalDiode(p, vd + h, { id: 0, gd: 0 }).id - evalDiode(p, vd - h, { id: 0, gd: 0 }).id) / (2 * h);
-      expect(close(ev.gd, fd, 1e-6, 1e-20)).toBe(true);
+      expectNearlyEqual(ev.gd, fd, 1e-6, 1e-20);
     }
   });
 });
@@ -160,10 +160,10 @@ describe('MOS square law', () => {
           const vdsEff = Math.abs(kind === 'nmos' ? vd - vs : vs - vd);
           if (Math.abs(c.vov) < 1e-5 || Math.abs(vdsEff - c.vov) < 1e-5 || vdsEff < 1e-5) return;
           const floor = 1e-12;
-          expect(close(ev.dIdVg, fd(0), 1e-5, floor)).toBe(true);
-          expect(close(ev.dIdVd, fd(1), 1e-5, floor)).toBe(true);
-          expect(close(ev.dIdVs, fd(2), 1e-5, floor)).toBe(true);
-          expect(close(ev.dIdVb, fd(3), 1e-5, floor)).toBe(true);
+          expectNearlyEqual(ev.dIdVg, fd(0), 1e-5, floor);
+          expectNearlyEqual(ev.dIdVd, fd(1), 1e-5, floor);
+          expectNearlyEqual(ev.dIdVs, fd(2), 1e-5, floor);
+          expectNearlyEqual(ev.dIdVb, fd(3), 1e-5, floor);
         },
       ),
       { numRuns: 500, seed: 3 },
@@ -177,9 +177,9 @@ describe('MOS square law', () => {
     const above = evalMos(p, 0.5 + vov, vov + 1e-9, 0, 0, newMosEval());
     expect(below.core.region).toBe('triode');
     expect(above.core.region).toBe('saturation');
-    expect(close(below.id, above.id, 1e-8)).toBe(true);
-    expect(close(below.dIdVd, above.dIdVd, 1e-6)).toBe(true);
-    expect(close(below.dIdVg, above.dIdVg, 1e-6)).toBe(true);
+    expectNearlyEqual(below.id, above.id, 1e-8, 0);
+    expectNearlyEqual(below.dIdVd, above.dIdVd, 1e-6, 0);
+    expectNearlyEqual(below.dIdVg, above.dIdVg, 1e-6, 0);
   });
 
   it('swaps drain and source for VDS < 0: ID(−VDS) = −ID with the roles exchanged (device symmetry, common practice)', () => {
@@ -187,7 +187,7 @@ describe('MOS square law', () => {
     const fwd = evalMos(p, 1.2, 0.9, 0.1, -0.5, newMosEval());
     const rev = evalMos(p, 1.2, 0.1, 0.9, -0.5, newMosEval());
     expect(rev.swapped).toBe(true);
-    expect(close(rev.id, -fwd.id, 1e-14)).toBe(true);
+    expectNearlyEqual(rev.id, -fwd.id, 1e-14, 0);
   });
 
   it('mirrors a pmos: negated voltages give negated current', () => {
@@ -195,7 +195,7 @@ describe('MOS square law', () => {
     const p = mosParams(part('pmos'));
     const a = evalMos(n, 1.3, 2, 0.2, 0, newMosEval());
     const b = evalMos(p, -1.3, -2, -0.2, 0, newMosEval());
-    expect(close(b.id, -a.id, 1e-14)).toBe(true);
+    expectNearlyEqual(b.id, -a.id, 1e-14, 0);
     expect(b.core.region).toBe(a.core.region);
   });
 

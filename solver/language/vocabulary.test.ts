@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { solveNetlist } from '../solve';
 import { measureFunctions } from '../measure/functions';
 import { measureMath } from '../measure/math';
-import { parseNetlist } from '../parse/parse-netlist';
+import { parseNetlist } from '../elaborate/parse-netlist';
 import { PART_KINDS } from './part-kinds';
 import {
   ANALYSES, ANALYSIS_SPECS, BUILTIN_FIGURES, DEVICE_FIELDS, FUNCTIONS, KEYWORDS, MEASURABLE, MEASURE_FUNCTIONS, RESULT_FUNCTIONS, STATEMENTS, takesNames,

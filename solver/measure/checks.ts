@@ -8,7 +8,7 @@
  * The margin is the signed distance to failing in the value's units: positive passes.
  */
 import type { CheckRequest } from '../circuit/analyses';
-import type { CheckResult } from '../result';
+import type { CheckResult } from '../circuit/result';
 
 /** Tolerance for `=` when none is written, relative to the limit. */
 export const DEFAULT_EQUAL_TOLERANCE = 1e-6;

@@ -6,9 +6,8 @@
  * plot is a set of straight lines on those axes, so this is the interpolation a designer does
  * by eye and it is exact on a pure pole's asymptotes.
  */
-import type { Phasor } from '../analysis/engine-api';
-import type { Curve } from '../result';
-import { decibels, fromPolar, magnitude, phaseDeg } from './complex';
+import { fromPolar, type Phasor } from '../numeric/complex';
+import type { Curve } from '../numeric/phasor-curve';
 import { MeasureError } from './measure-error';
 
 /** A named curve together with its frequency axis. */
@@ -21,29 +20,6 @@ export interface FreqCurve {
 
 /** 20·log10(√2): the "−3 dB" of a corner frequency, taken exactly. */
 export const CORNER_DB = 10 * Math.log10(2);
-
-/** Builds a curve from phasors, unwrapping the phase so it is continuous across ±180°. */
-export function curveFromPhasors(values: Phasor[]): Curve {
-  const mag = values.map(magnitude);
-  const db = mag.map(decibels);
-  const phase_deg = unwrapDegrees(values.map(phaseDeg));
-  return { mag, db, phase_deg };
-}
-
-/** Removes 360° jumps between consecutive samples. */
-export function unwrapDegrees(wrapped: number[]): number[] {
-  const out: number[] = [];
-  let offset = 0;
-  for (let k = 0; k < wrapped.length; k++) {
-    if (k > 0) {
-      const step = wrapped[k] + offset - out[k - 1];
-      if (step > 180) offset -= 360 * Math.round(step / 360);
-      else if (step < -180) offset += 360 * Math.round(-step / 360);
-    }
-    out.push(wrapped[k] + offset);
-  }
-  return out;
-}
 
 function requirePoints(c: FreqCurve, what: string): void {
   if (c.freqHz.length < 2) throw new MeasureError(`${what}(${c.name}) needs an ac sweep of at least two points.`, 'add `analyze ac from F1 to F2 per decade N`');

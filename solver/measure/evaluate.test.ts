@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import type { CheckRequest, MeasureRequest } from '../circuit/analyses';
-import type { OpResult } from '../result';
+import type { OpResult } from '../circuit/result';
 import { evaluateMeasures } from './evaluate';
-import { parseNetlist } from '../parse/parse-netlist';
+import { parseNetlist } from '../elaborate/parse-netlist';
 import type { MeasureContext } from './functions';
 
 // A hand-written operating point: two matched transistors of a pair at 1 mA each.

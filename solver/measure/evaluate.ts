@@ -9,10 +9,10 @@
 import type { MathNode } from 'mathjs';
 import type { CheckRequest, MeasureRequest } from '../circuit/analyses';
 import { diagnostic, type Diagnostic, type SourceLoc } from '../circuit/diagnostic';
-import type { CheckResult } from '../result';
+import type { CheckResult } from '../circuit/result';
 import { BUILTIN_FIGURES, CURVE_FUNCTIONS, PORTS_CURVE_NAMES } from '../language/vocabulary';
 import { fromPhasor, measureFunctions, type MeasureContext } from './functions';
-import { isEffectivelyReal } from './complex';
+import { isEffectivelyReal } from '../numeric/complex';
 import { FollowOnError, MeasureError, didYouMean } from './measure-error';
 import { measureMath } from './math';
 import { evaluateCheck } from './checks';

@@ -6,12 +6,13 @@
  * `cmrr` inside at/corner/unity/margin). Every function validates its arguments and throws a
  * MeasureError with a hint; the evaluator turns that into a diagnostic.
  */
-import type { AcSolution, AcSolver, LinearSystem, Phasor } from '../analysis/engine-api';
+import type { AcSolution, AcSolver, LinearSystem } from '../analysis/engine-api';
 import { GROUND } from '../circuit/types';
-import type { Curve, OpResult } from '../result';
+import type { Curve, OpResult } from '../circuit/result';
 import { CURVE_FUNCTIONS, PORTS_CURVE_NAMES } from '../language/vocabulary';
-import { csub, cx, decibels, isEffectivelyReal, magnitude, phaseDeg } from './complex';
-import { corner, curveFromPhasors, margin, unity, valueAt, type FreqCurve } from './curve';
+import { csub, cx, decibels, isEffectivelyReal, magnitude, phaseDeg, type Phasor } from '../numeric/complex';
+import { curveFromPhasors } from '../numeric/phasor-curve';
+import { corner, margin, unity, valueAt, type FreqCurve } from './curve';
 import { inputImpedance, outputImpedance } from './impedance';
 import { FollowOnError, MeasureError, didYouMean } from './measure-error';
 import { measureMath } from './math';

@@ -11,9 +11,10 @@
  * zout(node): 1 A injected into the node from ground with every independent source zeroed;
  * Z = v(node) / 1 A.
  */
-import type { AcSolver, LinearSystem, Phasor } from '../analysis/engine-api';
+import type { AcSolver, LinearSystem } from '../analysis/engine-api';
+import { isSingular } from '../analysis/ac-solve';
 import { GROUND } from '../circuit/types';
-import { cdiv, csub, cx, magnitude } from './complex';
+import { cdiv, csub, cx, magnitude, type Phasor } from '../numeric/complex';
 import { MeasureError, didYouMean } from './measure-error';
 
 /** Beyond this the "impedance" is an open circuit held only by the min_g leakage. */
@@ -67,11 +68,6 @@ export function outputImpedance(system: LinearSystem, solver: AcSolver, node: un
     throw new MeasureError(`zout(${node}): the node is held only by leakage (above 1e15 Ω); nothing drives it.`);
   }
   return z;
-}
-
-/** The engine flags a solve whose matrix could not be factored (an extra member beyond the contract). */
-export function isSingular(solution: object): boolean {
-  return (solution as { singular?: boolean }).singular === true;
 }
 
 /** Node voltage of the solution by MNA index (the engine's source map holds indices, not names). */

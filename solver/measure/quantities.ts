@@ -4,7 +4,7 @@
  * device does not have throws a MeasureError with a suggestion, never returns undefined.
  */
 import { GROUND } from '../circuit/types';
-import type { BjtOp, DeviceOp, DiodeOp, MosOp, OpResult } from '../result';
+import type { BjtOp, DeviceOp, DiodeOp, MosOp, OpResult } from '../circuit/result';
 import { MEASURABLE } from '../language/vocabulary';
 import { MeasureError, didYouMean } from './measure-error';
 

@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import type { Diagnostic } from '../circuit/diagnostic';
-import { parseNetlist } from './index';
+import { parseNetlist } from '../elaborate/parse-netlist';
 
 const SRC = 'v1: vsrc(a, gnd) 1\n';
 

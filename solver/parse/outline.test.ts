@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { solveNetlist, solveWithOutline } from '../solve';
-import { parseNetlist } from './parse-netlist';
+import { parseNetlist } from '../elaborate/parse-netlist';
 
 const MIRROR = `block mirror2(in, out, rail)
   param ratio = 1

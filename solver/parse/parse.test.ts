@@ -4,8 +4,9 @@
  */
 import { describe, expect, it } from 'vitest';
 import type { Bjt, Mosfet, VoltageSource } from '../circuit/types';
-import { parseNetlist } from './index';
+import { parseNetlist } from '../elaborate/parse-netlist';
 import { EXAMPLE } from './test-netlists';
+import { expectNearlyEqual } from '../testing/nearly-equal';
 
 
 describe('the resistor-tail example', () => {
@@ -34,8 +35,8 @@ describe('the resistor-tail example', () => {
     expect(q2).toMatchObject({ kind: 'npn', c: 'outb', b: 'inb', e: 'tail', area: 1 });
     expect(q2.model.name).toBe('qn');
     expect(q2.model.va).toBe(80);
-    expect(q2.model.cjc / 0.5e-12).toBeCloseTo(1, 12);
-    expect(q2.model.tauf / 0.3e-9).toBeCloseTo(1, 12);
+    expectNearlyEqual(q2.model.cjc, 0.5e-12, 5e-13, 0);
+    expectNearlyEqual(q2.model.tauf, 0.3e-9, 5e-13, 0);
     expect(q2.model.betaR).toBe(1); // §2: beta_r default 1
     expect(q2.model.eg).toBe(1.12); // §2: eg default 1.12 eV
     expect(q2.model.pt).toBe(3);
@@ -82,8 +83,8 @@ describe('statements', () => {
     expect(r.diagnostics).toEqual([]);
     const m1 = r.circuit?.parts.find((p) => p.name === 'm1') as Mosfet;
     expect(m1).toMatchObject({ d: 'd', g: 'gnd', s: 'vdd', b: 'vdd', m: 2 });
-    expect(m1.w / 20e-6).toBeCloseTo(1, 12);
-    expect(m1.l / 0.5e-6).toBeCloseTo(1, 12);
+    expectNearlyEqual(m1.w, 20e-6, 5e-13, 0);
+    expectNearlyEqual(m1.l, 0.5e-6, 5e-13, 0);
     expect(m1.model.vth).toBeCloseTo(0.6, 12); // §2: vth is a magnitude for pmos
   });
 
@@ -131,7 +132,7 @@ describe('statements', () => {
     expect(vary1).toMatchObject({ kind: 'vary', param: 'rt', values: [1000, 10000, 100000] });
     const values2 = (vary2 as { values: number[] }).values;
     expect(values2).toHaveLength(16); // 3 decades × 5 per decade, both ends
-    expect(values2[5] / 1e4).toBeCloseTo(1, 12);
+    expectNearlyEqual(values2[5], 1e4, 5e-13, 0);
     expect(temp).toMatchObject({ kind: 'temp', valuesC: [-40, 27, 125] });
     expect(noise).toMatchObject({ kind: 'noise', out: 'out', input: 'va', fromHz: 10, toHz: 1e7, perDecade: 10 });
     expect(mismatch).toMatchObject({ kind: 'mismatch', runs: 500, seed: 7 });

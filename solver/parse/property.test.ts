@@ -6,7 +6,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import type { Part } from '../circuit/types';
-import { parseNetlist, type ParseResult } from './index';
+import { parseNetlist } from '../elaborate/parse-netlist';
+import type { ParseResult } from './parse-netlist';
 import { EXAMPLE } from './test-netlists';
 
 const BLOCKS = `model qm: npn(beta=50)

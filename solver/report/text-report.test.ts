@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { SolveResult } from '../result';
+import type { SolveResult } from '../circuit/result';
 import { CAUTION, formatReport } from './text-report';
 
 const base: SolveResult = {

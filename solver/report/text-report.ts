@@ -3,7 +3,7 @@
  * Plain text, aligned columns, SI prefixes and units; errors with line:col and hint.
  */
 import type { Diagnostic } from '../circuit/diagnostic';
-import type { BjtOp, ComplexFigure, DeviceOp, DiodeOp, MosOp, SolveResult } from '../result';
+import type { BjtOp, ComplexFigure, DeviceOp, DiodeOp, MosOp, SolveResult } from '../circuit/result';
 import { DEVICE_FIELDS } from '../language/vocabulary';
 import { formatDb, formatDeg, formatFigure, formatPlain, formatSi } from './si-format';
 

@@ -5,12 +5,12 @@
  */
 import { diagnostic, type Diagnostic } from '../circuit/diagnostic';
 import type { Circuit } from '../circuit/types';
-import type { Curve, AcResult } from '../result';
+import type { Curve, AcResult } from '../circuit/result';
 import { logSweep } from '../analysis/frequency';
-import type { Excitation, Phasor } from '../analysis/engine-api';
+import type { Excitation } from '../analysis/engine-api';
 import { portsCurves } from '../analysis/ports';
-import { fromPolar } from '../measure/complex';
-import { curveFromPhasors } from '../measure/curve';
+import { fromPolar, type Phasor } from '../numeric/complex';
+import { curveFromPhasors } from '../numeric/phasor-curve';
 import { topLevelNodes, type AnalysisRunner } from './analysis-run';
 
 /** The excitation of the sources' own `ac=` values. */

@@ -5,7 +5,7 @@
  */
 import type { AnalysisRequest } from '../circuit/analyses';
 import { diagnostic, type Diagnostic } from '../circuit/diagnostic';
-import type { AcResult, TransferResult } from '../result';
+import type { AcResult, TransferResult } from '../circuit/result';
 import { runAc } from './ac';
 import type { AnalysisRunner } from './analysis-run';
 import { runTransfer } from './transfer';

@@ -6,7 +6,7 @@
 import type { Requests } from '../circuit/analyses';
 import type { Diagnostic } from '../circuit/diagnostic';
 import type { Circuit } from '../circuit/types';
-import type { SolveResult } from '../result';
+import type { SolveResult } from '../circuit/result';
 import { createAcSolver } from '../analysis/ac-solve';
 import { isOpFailure, solveOperatingPoint } from '../analysis/operating-point';
 import { analyzePorts } from '../analysis/ports';

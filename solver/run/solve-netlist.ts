@@ -7,9 +7,10 @@
  * `internal-error` diagnostic and a final pass replaces any non-finite number with 0 and reports it.
  */
 import { diagnostic, tidyDiagnostic, type Diagnostic } from '../circuit/diagnostic';
-import type { SolveResult } from '../result';
+import type { SolveResult } from '../circuit/result';
 import { emptyOutline, type NetlistOutline } from '../parse/outline';
-import { parseNetlist, type ParseOptions, type ParseResult } from '../parse/parse-netlist';
+import { parseNetlist } from '../elaborate/parse-netlist';
+import type { ParseOptions, ParseResult } from '../parse/parse-netlist';
 import { unavailableAnalyses } from './analyses';
 import { solveCircuit } from './solve-circuit';
 

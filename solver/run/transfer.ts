@@ -5,7 +5,7 @@
  */
 import type { TransferRequest } from '../circuit/analyses';
 import type { Part } from '../circuit/types';
-import type { TransferResult } from '../result';
+import type { TransferResult } from '../circuit/result';
 import { dcSweep } from '../analysis/dc-sweep';
 import { topLevelNodes, type AnalysisRunner } from './analysis-run';
 

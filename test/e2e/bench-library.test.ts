@@ -34,8 +34,10 @@ describe('library blocks in the bench', () => {
     await waitForPainted(page);
     await expect.poll(() => page.locator('.cm-lintRange-error').count()).toBe(0);
     await page.getByRole('tab', { name: 'Bias' }).click();
-    const rows = await page.getByRole('table', { name: 'Bipolar transistors' }).locator('tr').allTextContents();
-    expect(rows.filter((r) => /m1\.q[abc]/.test(r))).toHaveLength(3);
+    // The table may still hold the demo's devices for a moment (the block file is fetched first).
+    const table = page.getByRole('table', { name: 'Bipolar transistors' });
+    await expect.poll(async () => (await table.locator('tr').allTextContents()).filter((r) => /m1\.q[abc]/.test(r)).length, { timeout: 15_000 }).toBe(3);
+    const rows = await table.locator('tr').allTextContents();
     // IREF = (5 V − 2·VBE)/4.3 kΩ ≈ 0.81 mA with VBE ≈ 0.77 V at this current (is = 1e-16 A), and a
     // Wilson mirror passes it on within 2/(β² + 2β + 2) (Sedra & Smith, 7th ed., Wilson mirror).
     const ic = Number(/active\s*(\d+) µA/.exec(rows.find((r) => r.includes('m1.qc')) ?? '')?.[1]);

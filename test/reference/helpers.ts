@@ -25,12 +25,6 @@ export function solveOk(text: string): SolveResult {
   return result;
 }
 
-/** |actual/expected − 1| must stay below `tol`. */
-export function expectRelative(actual: number, expected: number, tol: number): void {
-  const rel = Math.abs(actual / expected - 1);
-  expect(rel, `actual ${actual}, expected ${expected}, relative error ${rel} > ${tol}`).toBeLessThan(tol);
-}
-
 /** A bipolar device's operating point from a result. */
 export function bjt(result: SolveResult, name: string) {
   const d = result.op?.devices[name];

@@ -4,7 +4,8 @@
  * that a wrong base-current bookkeeping cannot hide inside a ratio of 0.9998.
  */
 import { describe, expect, it } from 'vitest';
-import { bjt, expectRelative, solveOk, thermalVoltage } from './helpers';
+import { expectNearlyEqual } from '../../solver/testing/nearly-equal';
+import { bjt, solveOk, thermalVoltage } from './helpers';
 
 const BETA = 100;
 
@@ -23,7 +24,7 @@ vo:   vsrc(out, gnd) 2.5
 measure ratio = ic(qb) / 1m
 `);
     const error = 1 - r.measures.ratio;
-    expectRelative(error, 1 - 1 / (1 + 2 / BETA), 1e-6);
+    expectNearlyEqual(error, 1 - 1 / (1 + 2 / BETA), 1e-6, 0);
   });
 
   // Sedra & Smith, Microelectronic Circuits, 7th ed., §8.6.1 (mirror with base-current
@@ -47,7 +48,7 @@ vo:   vsrc(out, gnd) 2.5
     // With finite VA the base current stays IS·exp(VBE/VT)/β while the collector current gains
     // (1 + VCE/VA): each device's effective β becomes β(1 + VCE/VA), about 1 % for qa
     // (VCE = VBE) and 4 % for the helper (VCE ≈ 3.5 V), so the error term moves by ~5 %.
-    expectRelative(1 - ratio, 1 - 1 / (1 + 2 / (BETA * (BETA + 1))), 0.1);
+    expectNearlyEqual(1 - ratio, 1 - 1 / (1 + 2 / (BETA * (BETA + 1))), 0.1, 0);
   });
 
   it('base-current helper mirror with an ideal model: the error term exactly', () => {
@@ -61,7 +62,7 @@ qh:   npn(c=vcc, b=ref, e=base) qi
 vo:   vsrc(out, gnd) 2.5
 measure ratio = ic(qb) / 1m
 `);
-    expectRelative(1 - r.measures.ratio, 1 - 1 / (1 + 2 / (BETA * (BETA + 1))), 1e-4);
+    expectNearlyEqual(1 - r.measures.ratio, 1 - 1 / (1 + 2 / (BETA * (BETA + 1))), 1e-4, 0);
   });
 
   // Sedra & Smith, Microelectronic Circuits, 7th ed., §8.6.3 (Wilson mirror):
@@ -78,7 +79,7 @@ qc:   npn(c=out, b=ref, e=mid) qi
 vo:   vsrc(out, gnd) 3
 measure ratio = ic(qc) / 1m
 `);
-    expectRelative(1 - r.measures.ratio, 2 / (BETA * BETA + 2 * BETA + 2), 1e-4);
+    expectNearlyEqual(1 - r.measures.ratio, 2 / (BETA * BETA + 2 * BETA + 2), 1e-4, 0);
   });
 
   // Sedra & Smith, Microelectronic Circuits, 7th ed., §8.6.4 (Widlar current source):
@@ -98,15 +99,15 @@ measure io = ic(w1.qb)
     const vt = thermalVoltage(27);
     const io = r.measures.io;
     const re = 11.9e3;
-    expectRelative(io * re, vt * Math.log(1e-3 / io), 0.02);
+    expectNearlyEqual(io * re, vt * Math.log(1e-3 / io), 0.02, 0);
     const qa = bjt(r, 'w1.qa');
     const qb = bjt(r, 'w1.qb');
     // Exact form with the Early factors: IC = IS·exp(VBE/VT)·(1 + VCE/VA) in forward activity.
     const lhs = qb.ie * re;
     const rhs = vt * Math.log((qa.ic / (1 + qa.vce / 80)) / (qb.ic / (1 + qb.vce / 80)));
-    expectRelative(lhs, rhs, 1e-5);
+    expectNearlyEqual(lhs, rhs, 1e-5, 0);
     // The design point: about 10 µA from 1 mA.
-    expectRelative(io, 10e-6, 0.05);
+    expectNearlyEqual(io, 10e-6, 0.05, 0);
   });
 
   // Sedra & Smith, Microelectronic Circuits, 7th ed., BJT cascode output resistance (from memory): Rout = ro2 + (1 + gm2·ro2)(ro1 ‖ rπ2), exact for the hybrid-pi circuit
@@ -130,11 +131,11 @@ measure zo = zout(out)
     const rout = q2.ro + (1 + q2.gm * q2.ro) * par(q1.ro, q2.rpi);
     // zout sees rl in parallel; min_g (1e-12 S per node) adds a few ppm of Rout.
     const fromZout = 1 / (1 / r.measures.zo - 1 / 1e3);
-    expectRelative(fromZout, rout, 1e-3);
+    expectNearlyEqual(fromZout, rout, 1e-3, 0);
     // The first-order estimate Rout ≈ β·ro2 when gm·ro ≫ 1 and ro1 ≫ rπ2 (same sources), with
     // the small-signal β = gm·rπ: the Early factor raises IC but not IB, so gm·rπ = β(1 + VCE/VA),
     // some 20 % above the model's beta here. ro1 ‖ rπ2 < rπ2 costs ~5 %: tolerance 10 %.
-    expectRelative(rout, q2.gm * q2.rpi * q2.ro, 0.1);
+    expectNearlyEqual(rout, q2.gm * q2.rpi * q2.ro, 0.1, 0);
 
     const held = solveOk(`
 model qc: npn(is=1e-16, beta=${BETA}, va=50)
@@ -147,7 +148,7 @@ measure zo = zin(vo)
 `);
     const h1 = bjt(held, 'q1');
     const h2 = bjt(held, 'q2');
-    expectRelative(held.measures.zo, h2.ro + (1 + h2.gm * h2.ro) * par(h1.ro, h2.rpi), 1e-4);
+    expectNearlyEqual(held.measures.zo, h2.ro + (1 + h2.gm * h2.ro) * par(h1.ro, h2.rpi), 1e-4, 0);
   });
 });
 
@@ -165,7 +166,7 @@ vo:   vsrc(out, gnd) 1.5
 measure io = id(m1.mb)
 `);
     const ma = r.op!.devices['m1.ma'] as { vds: number };
-    expectRelative(r.measures.io, 2 * 100e-6 * (1 + 0.05 * 1.5) / (1 + 0.05 * ma.vds), 1e-6);
+    expectNearlyEqual(r.measures.io, 2 * 100e-6 * (1 + 0.05 * 1.5) / (1 + 0.05 * ma.vds), 1e-6, 0);
   });
 });
 

@@ -3,7 +3,8 @@
  * CMRR of resistor and mirror tails, and the large-signal steering of the tail current.
  */
 import { describe, expect, it } from 'vitest';
-import { bjt, expectRelative, solveOk, thermalVoltage } from './helpers';
+import { expectNearlyEqual } from '../../solver/testing/nearly-equal';
+import { bjt, solveOk, thermalVoltage } from './helpers';
 
 /** A resistor-tail npn pair; `model` lets a test choose ideal (va = ∞) or realistic devices. */
 function pairNetlist(opts: { rc: number; rt: number; model: string; extra?: string }): string {
@@ -34,12 +35,12 @@ describe('resistor-tail pair', () => {
     const r = solveOk(pairNetlist({ rc: 5e3, rt: 10e3, model: 'npn(is=1e-16, beta=100)', extra: 'ports in=(va, vb) out=(outa, outb)' }));
     const q1 = bjt(r, 'q1');
     const gpi = 1 / q1.rpi;
-    expectRelative(r.ports!.adm.re, -q1.gm * 5e3, 1e-6);
-    expectRelative(r.ports!.acm.re, (-q1.gm * 5e3) / (1 + (q1.gm + gpi) * 2 * 10e3), 1e-6);
+    expectNearlyEqual(r.ports!.adm.re, -q1.gm * 5e3, 1e-6, 0);
+    expectNearlyEqual(r.ports!.acm.re, (-q1.gm * 5e3) / (1 + (q1.gm + gpi) * 2 * 10e3), 1e-6, 0);
     expect(r.ports!.adm.phase_deg).toBe(180);
     expect(r.ports!.output).toBe('differential');
     // gm = IC/VT for the exponential model (Sedra & Smith, §7.2): the solver's gm agrees.
-    expectRelative(q1.gm, q1.ic / thermalVoltage(27), 1e-6);
+    expectNearlyEqual(q1.gm, q1.ic / thermalVoltage(27), 1e-6, 0);
   });
 
   // Common practice: a resistor tail gives a CMRR of a few hundred (around 50 dB) because
@@ -51,7 +52,7 @@ describe('resistor-tail pair', () => {
     // The first-order estimate CMRR ≈ 2·gm·RT (large gm·RT) within 10 %: the (1 + …) and
     // gπ terms are a 1 % effect, ro ‖ RC a few percent.
     const q1 = bjt(r, 'q1');
-    expectRelative(r.ports!.cmrr, 2 * q1.gm * 4.65e3, 0.1);
+    expectNearlyEqual(r.ports!.cmrr, 2 * q1.gm * 4.65e3, 0.1, 0);
   });
 
   // 20·log10 of voltage ratios (common practice): 379 → 51.6 dB, 54,000 → 94.6 dB.
@@ -116,7 +117,7 @@ ports in=(va, vb) out=(outa, outb)
     // (the (1 + …), gπ and ro-of-the-pair terms).
     const q1 = bjt(r, 'q1');
     const tail = bjt(r, 'tl.qb');
-    expectRelative(r.ports!.cmrr, 2 * q1.gm * tail.ro, 0.1);
+    expectNearlyEqual(r.ports!.cmrr, 2 * q1.gm * tail.ro, 0.1, 0);
     expect(r.ports!.cmrr_db).toBeGreaterThan(60);
     expect(r.ports!.cmrr_db).toBeLessThan(80);
   });

@@ -3,6 +3,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { solveNetlist } from '../../solver/index';
+import { expectNearlyEqual } from '../../solver/testing/nearly-equal';
 
 function allNumbersFinite(value: unknown): boolean {
   if (typeof value === 'number') return Number.isFinite(value);
@@ -72,8 +73,8 @@ describe('a mistake in a request line loses nothing else', () => {
     expect(r.errors).toHaveLength(1);
     expect(r.errors[0]).toMatchObject({ line: 5, message: expect.stringContaining('midd') });
     // Divider 10 V · 3k/(1k + 3k) = 7.5 V (Ohm's law); 1e-8 relative leaves room for min_g (1e-12 S).
-    expect(Math.abs((r.op?.nodes.mid ?? 0) / 7.5 - 1)).toBeLessThan(1e-8);
-    expect(Math.abs(r.measures.vm / 7.5 - 1)).toBeLessThan(1e-8);
+    expectNearlyEqual(r.op?.nodes.mid ?? 0, 7.5, 1e-8, 0);
+    expectNearlyEqual(r.measures.vm, 7.5, 1e-8, 0);
     expect(r.checks).toMatchObject([{ pass: true, line: 6 }]);
   });
 

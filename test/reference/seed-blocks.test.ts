@@ -11,6 +11,7 @@ import { parseNetlist, readBlockDocs, solveNetlist, type SolveResult } from '../
 import { DiagnosticBag } from '../../solver/circuit/diagnostic';
 import { parseFile } from '../../solver/parse/statements';
 import { createLibraryResolver, defaultLibraryDir, readManifest, type ManifestEntry } from '../../tools/library-resolver';
+import { expectNearlyEqual } from '../../solver/testing/nearly-equal';
 import { bjt, mos, thermalVoltage } from './helpers';
 
 const dir = defaultLibraryDir();
@@ -31,12 +32,6 @@ function solveSeed(key: string): SolveResult {
     solved.set(key, r);
   }
   return r;
-}
-
-/** |actual − expected| ≤ abs + rel·|expected|. */
-function expectNear(actual: number, expected: number, tol: { rel: number; abs?: number }): void {
-  const limit = (tol.abs ?? 0) + tol.rel * Math.abs(expected);
-  expect(Math.abs(actual - expected), `actual ${actual}, expected ${expected}, allowed ±${limit}`).toBeLessThanOrEqual(limit);
 }
 
 const par = (a: number, b: number): number => (a * b) / (a + b);
@@ -119,9 +114,9 @@ describe('mirror ratios against the textbook (library models: β = 100, VA = 80 
     const r = solveSeed('mirrors/simple_npn@1');
     const qa = bjt(r, 'm1.qa');
     const qb = bjt(r, 'm1.qb');
-    expectNear(qb.ic / 100e-6, (2 * early(qb.vce, qa.vce)) / (1 + 3 / BETA), { rel: 5e-4 });
+    expectNearlyEqual(qb.ic / 100e-6, (2 * early(qb.vce, qa.vce)) / (1 + 3 / BETA), 5e-4, 0);
     // Output resistance: ro of qb (same section); min_g adds 1e-12 S.
-    expectNear(r.measures.rout, qb.ro, { rel: 1e-4 });
+    expectNearlyEqual(r.measures.rout, qb.ro, 1e-4, 0);
   });
 
   // Gray et al., 5th ed., §4.2.3 (beta helper, section from memory): IO/IIN = 1/(1 + 2/(βF(βF + 1))),
@@ -129,7 +124,7 @@ describe('mirror ratios against the textbook (library models: β = 100, VA = 80 
   it('base-current helper mirror', () => {
     const r = solveSeed('mirrors/helper_npn@1');
     const e = early(bjt(r, 'm1.qb').vce, bjt(r, 'm1.qa').vce);
-    expectNear(r.measures.ratio, e / (1 + 2 / (BETA * (BETA + 1))), { rel: 5e-5 });
+    expectNearlyEqual(r.measures.ratio, e / (1 + 2 / (BETA * (BETA + 1))), 5e-5, 0);
     expect(Math.abs(r.measures.ratio - e)).toBeGreaterThan(1e-4 * e);
   });
 
@@ -140,9 +135,9 @@ describe('mirror ratios against the textbook (library models: β = 100, VA = 80 
   it('Wilson mirror', () => {
     const r = solveSeed('mirrors/wilson_npn@3');
     const e = early(bjt(r, 'm1.qb').vce, bjt(r, 'm1.qa').vce);
-    expectNear(r.measures.ratio, e * (1 - 2 / (BETA * BETA + 2 * BETA + 2)), { rel: 5e-4 });
+    expectNearlyEqual(r.measures.ratio, e * (1 - 2 / (BETA * BETA + 2 * BETA + 2)), 5e-4, 0);
     const qc = bjt(r, 'm1.qc');
-    expectNear(r.measures.rout, (qc.gm * qc.rpi * qc.ro) / 2, { rel: 0.1 });
+    expectNearlyEqual(r.measures.rout, (qc.gm * qc.rpi * qc.ro) / 2, 0.1, 0);
   });
 
   // Gray et al., 5th ed., §4.2.4 (mirror with emitter degeneration, section from memory): the
@@ -155,13 +150,13 @@ describe('mirror ratios against the textbook (library models: β = 100, VA = 80 
     const qb = bjt(r, 'm1.qb');
     const RE = 2.5e3;
     const textbook = 1 / (1 + 2 / BETA);
-    expectNear(r.measures.ratio, textbook, { rel: 5e-3 });
+    expectNearlyEqual(r.measures.ratio, textbook, 5e-3, 0);
     const e = early(qb.vce, qa.vce);
     expect(e - 1).toBeGreaterThan(0.015); // what an undegenerated mirror would be off by
-    expectNear(r.measures.ratio / textbook - 1, (e - 1) / (1 + qa.gm * RE), { rel: 0.3, abs: 2e-4 });
+    expectNearlyEqual(r.measures.ratio / textbook - 1, (e - 1) / (1 + qa.gm * RE), 0.3, 2e-4);
     const rb = 1 / qa.gm + RE;
     const rp = par(RE, qb.rpi + rb);
-    expectNear(r.measures.rout, qb.ro + rp * (1 + (qb.gm * qb.ro * qb.rpi) / (qb.rpi + rb)), { rel: 0.01 });
+    expectNearlyEqual(r.measures.rout, qb.ro + rp * (1 + (qb.gm * qb.ro * qb.rpi) / (qb.rpi + rb)), 0.01, 0);
   });
 
   // Gray et al., 5th ed., §4.2.5 (cascode mirror, section from memory): IO/IIN ≈ 1 − 4/βF, here
@@ -169,11 +164,11 @@ describe('mirror ratios against the textbook (library models: β = 100, VA = 80 
   // factor. Rout ≈ β·ro/2 of qd (same section).
   it('cascode mirror', () => {
     const r = solveSeed('mirrors/cascode_npn@1');
-    expectNear(r.measures.ratio, BETA ** 2 / (BETA ** 2 + 4 * BETA + 2), { rel: 1e-3 });
+    expectNearlyEqual(r.measures.ratio, BETA ** 2 / (BETA ** 2 + 4 * BETA + 2), 1e-3, 0);
     // The first-order form leaves 14/β² (1.4·10⁻³) of the closed form out.
-    expectNear(r.measures.ratio, 1 - 4 / BETA, { rel: 0, abs: 2.5e-3 });
+    expectNearlyEqual(r.measures.ratio, 1 - 4 / BETA, 0, 2.5e-3);
     const qd = bjt(r, 'm1.qd');
-    expectNear(r.measures.rout, (qd.gm * qd.rpi * qd.ro) / 2, { rel: 0.1 });
+    expectNearlyEqual(r.measures.rout, (qd.gm * qd.rpi * qd.ro) / 2, 0.1, 0);
   });
 
   // Sedra & Smith, 7th ed., Widlar current source (section from memory): IO·RE = VT·ln(IREF/IO),
@@ -181,9 +176,9 @@ describe('mirror ratios against the textbook (library models: β = 100, VA = 80 
   it('Widlar source', () => {
     const r = solveSeed('mirrors/widlar_npn@1');
     const io = r.measures.io;
-    expectNear(io * 11.9e3, thermalVoltage(27) * Math.log(1e-3 / io), { rel: 0.01 });
+    expectNearlyEqual(io * 11.9e3, thermalVoltage(27) * Math.log(1e-3 / io), 0.01, 0);
     const qb = bjt(r, 'w1.qb');
-    expectNear(r.measures.rout, qb.ro * (1 + qb.gm * par(11.9e3, qb.rpi)), { rel: 0.01 });
+    expectNearlyEqual(r.measures.rout, qb.ro * (1 + qb.gm * par(11.9e3, qb.rpi)), 0.01, 0);
   });
 
   // Razavi, Design of Analog CMOS Integrated Circuits, 2nd ed., §5.1 (basic current mirror):
@@ -192,8 +187,8 @@ describe('mirror ratios against the textbook (library models: β = 100, VA = 80 
     const r = solveSeed('mirrors/simple_nmos@1');
     const ma = mos(r, 'm1.ma');
     const mb = mos(r, 'm1.mb');
-    expectNear(r.measures.ratio, (2 * (1 + 0.05 * mb.vds)) / (1 + 0.05 * ma.vds), { rel: 1e-6 });
-    expectNear(r.measures.rout, 1 / mb.gds, { rel: 1e-4 });
+    expectNearlyEqual(r.measures.ratio, (2 * (1 + 0.05 * mb.vds)) / (1 + 0.05 * ma.vds), 1e-6, 0);
+    expectNearlyEqual(r.measures.rout, 1 / mb.gds, 1e-4, 0);
   });
 
   // The mirrored tail: Ohm's law for the reference, then the simple mirror of §4.2.2 above.
@@ -201,9 +196,9 @@ describe('mirror ratios against the textbook (library models: β = 100, VA = 80 
     const r = solveSeed('tails/mirror_tail_npn@1');
     const qa = bjt(r, 't1.qa');
     const qb = bjt(r, 't1.qb');
-    expectNear(r.measures.iref, (10 - qa.vbe) / 9.3e3, { rel: 1e-6 });
-    expectNear(r.measures.ratio, early(qb.vce, qa.vce) / (1 + 2 / BETA), { rel: 5e-4 });
-    expectNear(r.measures.rout, qb.ro, { rel: 1e-4 });
+    expectNearlyEqual(r.measures.iref, (10 - qa.vbe) / 9.3e3, 1e-6, 0);
+    expectNearlyEqual(r.measures.ratio, early(qb.vce, qa.vce) / (1 + 2 / BETA), 5e-4, 0);
+    expectNearlyEqual(r.measures.rout, qb.ro, 1e-4, 0);
   });
 });
 
@@ -214,13 +209,13 @@ describe('pairs and the follower against the textbook', () => {
     for (const [key, rc] of [['pairs/resistor_tail_npn@1', 5e3], ['pairs/resistor_load_npn@1', 10e3]] as const) {
       const r = solveSeed(key);
       const qa = bjt(r, 'p1.qa');
-      expectNear(r.ports!.adm.re, -qa.gm * par(rc, qa.ro), { rel: 1e-4 });
+      expectNearlyEqual(r.ports!.adm.re, -qa.gm * par(rc, qa.ro), 1e-4, 0);
     }
     const c = solveSeed('pairs/cascode_pair_npn@1');
     const q = bjt(c, 'p1.qa');
     const qc = bjt(c, 'p1.qca');
-    expectNear(c.ports!.adm.re, -(qc.ic / qc.ie) * q.gm * 10e3, { rel: 5e-3 });
-    expectNear(c.measures.zo, 10e3, { rel: 2e-3 });
+    expectNearlyEqual(c.ports!.adm.re, -(qc.ic / qc.ie) * q.gm * 10e3, 5e-3, 0);
+    expectNearlyEqual(c.measures.zo, 10e3, 2e-3, 0);
   });
 
   // Gray et al., 5th ed., §4.3.5 (mirror-loaded pair, section from memory): Gm ≈ gm, Rout =
@@ -230,8 +225,8 @@ describe('pairs and the follower against the textbook', () => {
     const r = solveSeed('pairs/mirror_load_npn@1');
     const qb = bjt(r, 'p1.qb');
     const pb = bjt(r, 'p1.pb');
-    expectNear(r.ports!.adm.re, qb.gm * par(qb.ro, pb.ro), { rel: 0.03 });
-    expectNear(r.measures.zo, par(qb.ro, pb.ro), { rel: 0.01 });
+    expectNearlyEqual(r.ports!.adm.re, qb.gm * par(qb.ro, pb.ro), 0.03, 0);
+    expectNearlyEqual(r.measures.zo, par(qb.ro, pb.ro), 0.01, 0);
   });
 
   // Sedra & Smith, 7th ed., §7.2 (VBE = VT·ln(IC/IS)), with the model's Early factor on IC and
@@ -240,7 +235,7 @@ describe('pairs and the follower against the textbook', () => {
     const r = solveSeed('shifters/emitter_follower_npn@1');
     const q = bjt(r, 'ef.qf');
     const ic = (1e-3 * q.ic) / q.ie;
-    expectNear(r.measures.shift, thermalVoltage(27) * Math.log(ic / (1e-16 * (1 + q.vce / 80))), { rel: 1e-5 });
-    expectNear(r.measures.zo, par(1 / (q.gm + 1 / q.rpi), q.ro), { rel: 0.01 });
+    expectNearlyEqual(r.measures.shift, thermalVoltage(27) * Math.log(ic / (1e-16 * (1 + q.vce / 80))), 1e-5, 0);
+    expectNearlyEqual(r.measures.zo, par(1 / (q.gm + 1 / q.rpi), q.ro), 0.01, 0);
   });
 });

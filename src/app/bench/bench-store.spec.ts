@@ -4,7 +4,7 @@ import { DRAFT_BACKEND, DRAFT_STASH, Drafts, MemoryDraftBackend, MemoryStash, ST
 import { AUTOSAVE_MS, BenchStore, MAX_FILE_BYTES, slug } from './bench-store';
 import { EXAMPLES } from './examples';
 import { SOLVER_WORKER_FACTORY, SolverClient, type WorkerLike } from './solver-client';
-import { NO_NAMES, type SolveRequest, type WorkerMessage } from './solver-protocol';
+import { NO_NAMES, type SolveReply, type SolveRequest, type WorkerMessage } from './solver-protocol';
 
 /**
  * A worker that answers at once, titling the result by its text: a circuit error (no operating
@@ -17,7 +17,9 @@ class EchoWorker implements WorkerLike {
     const errors: Diagnostic[] = /ERR|REQ/.test(m.text) ? [{ severity: 'error', code: 'syntax', line: 1, col: 1, message: 'bad' }] : [];
     const op = m.text.includes('ERR') ? undefined : { nodes: {}, sources: {}, parts: {}, devices: {} };
     const result = { title: m.text, temp_c: 27, op, measures: {}, checks: [], warnings: [], errors } as SolveResult;
-    queueMicrotask(() => this.onmessage?.({ data: { type: 'solved', id: m.id, result, text: m.text, names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>));
+    // Its one check line carries the text, so a test can tell which text's lines are shown.
+    const reply: SolveReply = { type: 'solved', id: m.id, result, text: m.text, names: NO_NAMES, lines: { measures: [], checks: [{ line: 1, expression: m.text }] }, solveMs: 1 };
+    queueMicrotask(() => this.onmessage?.({ data: reply } as MessageEvent<WorkerMessage>));
   }
   terminate(): void {}
 }
@@ -61,7 +63,7 @@ describe('BenchStore', () => {
     await solved('good two');
     await solved('half-typed ERR');
     expect(store.shown()?.title).toBe('good two');
-    expect(store.shownText()).toBe('good two');
+    expect(store.shownLines().checks[0].expression).toBe('good two');
     expect(store.stale()).toBe(true);
     expect(store.staleReason()).toBe('circuit');
     expect(store.diagnostics()).toHaveLength(1);

@@ -71,7 +71,7 @@ export class BenchStore {
   readonly solveMs = this.view.solveMs;
   /** What the panels show (see SolveView). */
   readonly shown = this.view.shown;
-  readonly shownText = this.view.shownText;
+  readonly shownLines = this.view.shownLines;
   readonly stale = this.view.stale;
   readonly staleReason = this.view.staleReason;
 

@@ -11,14 +11,11 @@
  * A version's source never changes once submitted, but its state does (vetted → retired) and so
  * does the newest vetted version: answers are re-asked after STATE_TTL_MS.
  */
-import type { UseLookup } from '../../../solver/parse/parse-netlist';
+import { parseNetlist, type OutlineUse, type UseLookup } from '../../../solver';
 import type { BlockCache } from './block-cache';
 import type { BlockOrigin, LibraryContext, UsedBlockState } from './solver-protocol';
 
 interface ManifestEntry { path: string; version: number; file: string }
-
-/** A `use path@version` line (path and version captured). */
-export const USE_LINE = /^[ \t]*use[ \t]+([A-Za-z0-9_/]+)@(\d+)/gm;
 
 /** How long a block's state from the server is trusted before it is asked again, ms. */
 export const STATE_TTL_MS = 30_000;
@@ -170,19 +167,12 @@ export class LibraryResolver {
   }
 }
 
-/** The `use` lines of a text, in order. */
-export function usesOf(text: string): { path: string; version: number; line: number }[] {
-  const out: { path: string; version: number; line: number }[] = [];
-  for (const m of text.matchAll(USE_LINE)) {
-    out.push({ path: m[1], version: Number(m[2]), line: lineAt(text, m.index ?? 0) });
-  }
-  return out;
-}
-
-function lineAt(text: string, index: number): number {
-  let line = 1;
-  for (let i = text.indexOf('\n'); i !== -1 && i < index; i = text.indexOf('\n', i + 1)) line++;
-  return line;
+/**
+ * The `use` lines of a text (a netlist or a block file), in order, as the solver reads them. The
+ * parse runs without a resolver: it is how the blocks to fetch are known before the solve.
+ */
+export function usesOf(text: string): OutlineUse[] {
+  return parseNetlist(text).outline.uses;
 }
 
 function sameContext(a: LibraryContext, b: LibraryContext): boolean {

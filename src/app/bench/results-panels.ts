@@ -15,6 +15,7 @@ import { ResponsePanel } from './panels/response-panel';
 import { TransferPanel } from './panels/transfer-panel';
 import { ResultsSummary } from './results-summary';
 import type { SolveStatus } from './solver-client';
+import { NO_LINES, type RequestLines } from './solver-protocol';
 
 let noteIds = 0;
 
@@ -46,9 +47,9 @@ let noteIds = 0;
           @if (failedChecks() > 0) { <span class="badge" [class.fail]="!stale()" [class.old]="stale()" [attr.aria-label]="failedChecks() + (stale() ? ' failing in an earlier version' : ' failing')">{{ failedChecks() }} fail</span> }
         </ng-template>
         <ng-template matTabContent><div class="panel">
-          <nw-checks-panel [result]="result()" [netlist]="text()" [stale]="stale()" (lineSelected)="lineSelected.emit($event)" />
+          <nw-checks-panel [result]="result()" [measureLines]="lines().measures" [stale]="stale()" (lineSelected)="lineSelected.emit($event)" />
           <h2 class="sub">Measures</h2>
-          <nw-measures-panel [result]="result()" [netlist]="text()" (lineSelected)="lineSelected.emit($event)" />
+          <nw-measures-panel [result]="result()" [measureLines]="lines().measures" (lineSelected)="lineSelected.emit($event)" />
         </div></ng-template>
       </mat-tab>
     </mat-tab-group>
@@ -77,8 +78,8 @@ let noteIds = 0;
 export class ResultsPanels {
   /** The result the panels show (the last clean one while the text has errors). */
   readonly result = input<SolveResult | undefined>();
-  /** The text of that result (its check and measure lines). */
-  readonly text = input('');
+  /** The measure and check lines of that result's text. */
+  readonly lines = input<RequestLines>(NO_LINES);
   /** The result is not the current text's (see SolveView): every figure is marked, no pass is green. */
   readonly stale = input(false);
   readonly errorCount = input(0);

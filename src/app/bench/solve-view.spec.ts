@@ -1,6 +1,6 @@
-import { solveNetlist } from '../../../solver';
+import { solveReply } from './solve-reply';
 import { circuitSolved, decideView, type ViewInputs } from './solve-view';
-import { NO_NAMES, type SolveReply } from './solver-protocol';
+import type { SolveReply } from './solver-protocol';
 
 /** A small pair whose circuit solves; variants below break a request line or the circuit itself. */
 const PAIR = [
@@ -21,7 +21,7 @@ const PAIR = [
 let nextId = 1;
 /** A real solve of `text`, as the worker would reply. */
 function reply(text: string): SolveReply {
-  return { type: 'solved', id: nextId++, result: solveNetlist(text), text, names: NO_NAMES, solveMs: 1 };
+  return solveReply(nextId++, text);
 }
 
 const solved = reply(PAIR);

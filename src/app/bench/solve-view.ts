@@ -13,7 +13,7 @@ import { computed, type Signal } from '@angular/core';
 import type { Diagnostic, SolveResult } from '../../../solver';
 import type { SolverClient, SolveStatus } from './solver-client';
 import { libraryNotices } from './library-notices';
-import { NO_NAMES, type NetlistNames, type SolveReply } from './solver-protocol';
+import { NO_LINES, NO_NAMES, type NetlistNames, type RequestLines, type SolveReply } from './solver-protocol';
 
 /** Why the figures on screen are not the current text's. */
 export type StaleReason =
@@ -73,8 +73,8 @@ export class SolveView {
   readonly solveMs: Signal<number | undefined>;
   /** What the panels show (see `decideView`). */
   readonly shown: Signal<SolveResult | undefined>;
-  /** The text of the shown result (its measure and check lines). */
-  readonly shownText: Signal<string>;
+  /** The measure and check lines of the shown result's text, from the parse that gave it. */
+  readonly shownLines: Signal<RequestLines>;
   /** Why the shown result is not the current text's, if it is not. */
   readonly staleReason: Signal<StaleReason | undefined>;
   /** The shown result is not the current text's: every figure is marked and nothing shows a pass in green. */
@@ -95,7 +95,7 @@ export class SolveView {
     this.solveMs = computed(() => client.reply()?.solveMs);
     const decision = computed(() => decideView({ reply: client.reply(), lastSolved: client.lastSolved(), status: client.status(), slow: client.slow() }));
     this.shown = computed(() => decision().shown?.result);
-    this.shownText = computed(() => decision().shown?.text ?? '');
+    this.shownLines = computed(() => decision().shown?.lines ?? NO_LINES);
     this.staleReason = computed(() => decision().stale);
     this.stale = computed(() => decision().stale !== undefined);
   }

@@ -1,7 +1,7 @@
 import { TestBed } from '@angular/core/testing';
 import type { SolveResult } from '../../../solver';
 import { FINISH_MS, SLOW_MS, SOLVER_WORKER_FACTORY, SolverClient, SPARE_DELAY_MS, type WorkerLike } from './solver-client';
-import { NO_NAMES, type SolveRequest, type WorkerMessage } from './solver-protocol';
+import { NO_LINES, NO_NAMES, type SolveRequest, type WorkerMessage } from './solver-protocol';
 
 /**
  * jsdom has no Worker: a fake that records what it is sent and answers when told to. Like the
@@ -34,7 +34,7 @@ class FakeWorker implements WorkerLike {
     if (this.terminated) return;
     const op = solved ? { nodes: {}, sources: {}, parts: {}, devices: {} } : undefined;
     const result = { title: request.text, temp_c: 27, op, measures: {}, checks: [], warnings: [], errors: [] } as SolveResult;
-    this.onmessage?.({ data: { type: 'solved', id: request.id, result, text: request.text, names: NO_NAMES, solveMs } } as MessageEvent<WorkerMessage>);
+    this.onmessage?.({ data: { type: 'solved', id: request.id, result, text: request.text, names: NO_NAMES, lines: NO_LINES, solveMs } } as MessageEvent<WorkerMessage>);
   }
   texts(): string[] {
     return this.sent.map((r) => r.text);
@@ -182,7 +182,7 @@ describe('SolverClient', () => {
     w.answer();
     client.solveNow('two');
     // A reply carrying the old id (as a worker that was not terminated might send) is dropped.
-    w.onmessage?.({ data: { type: 'solved', id: firstRequest.id, result: { title: 'stale' } as SolveResult, text: 'one', names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>);
+    w.onmessage?.({ data: { type: 'solved', id: firstRequest.id, result: { title: 'stale' } as SolveResult, text: 'one', names: NO_NAMES, lines: NO_LINES, solveMs: 1 } } as MessageEvent<WorkerMessage>);
     expect(client.reply()?.result.title).toBe('one');
     w.answer();
     expect(client.reply()?.result.title).toBe('two');

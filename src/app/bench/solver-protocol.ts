@@ -1,7 +1,7 @@
 /**
  * Messages between the bench and its solver worker. Plain data only (structured clone).
  */
-import type { BlockDoc, SolveResult } from '../../../solver';
+import type { BlockDoc, NetlistOutline, OutlineSymbols, SolveResult } from '../../../solver';
 
 /** Where a `use`d block's source came from. */
 export type BlockOrigin =
@@ -43,25 +43,19 @@ export interface LibraryEntry {
   origin: 'workspace' | 'seed';
 }
 
-/** What the editor completes from: the names a netlist defines, as the parser saw them. */
-export interface NetlistNames {
-  /** Model names with their device kind (`npn`, `nmos`, …). */
-  models: { name: string; kind: string }[];
-  /** Blocks defined in the file (and used from the library) with their pins and params. */
-  blocks: { name: string; pins: string[]; params: string[] }[];
-  /** Top-level parameters. */
-  params: string[];
-  /** Part names with their kind. */
-  parts: { name: string; kind: string }[];
-  /** Node names. */
-  nodes: string[];
-  /** Measure names. */
-  measures: string[];
-  /** The text's `use` lines as resolved, in text order. */
-  uses: UsedBlock[];
-}
+/**
+ * What the editor completes from: the names a netlist defines as the solver's parse understood
+ * them (the outline's symbols: models and parts with their kinds, parts of block instances
+ * included), and the text's `use` lines as the worker resolved them, in text order.
+ */
+export type NetlistNames = OutlineSymbols & { uses: UsedBlock[] };
 
 export const NO_NAMES: NetlistNames = { models: [], blocks: [], params: [], parts: [], nodes: [], measures: [], uses: [] };
+
+/** The text's measure and check lines (line, name, expression as written), from the parse that gave the result. */
+export type RequestLines = Pick<NetlistOutline, 'measures' | 'checks'>;
+
+export const NO_LINES: RequestLines = { measures: [], checks: [] };
 
 /** A block version's source pinned by a share link. */
 export interface PinnedBlock {
@@ -96,9 +90,11 @@ export interface SolveReply {
   type: 'solved';
   id: number;
   result: SolveResult;
-  /** The text solved (echoed, so a panel can read measure lines from the very text of its result). */
+  /** The text solved, echoed with its result. */
   text: string;
   names: NetlistNames;
+  /** The measure and check lines of that text, from the same parse: the panels show them beside the result. */
+  lines: RequestLines;
   /** Wall time of the solve inside the worker, ms (the bench's guess of how long the next will take). */
   solveMs: number;
 }

@@ -1,16 +1,17 @@
 /**
- * The solver worker: netlist text in, the §5 result and the names it defines out.
+ * The solver worker: netlist text in; out, from the solver's one parse of it, the §5 result, the
+ * names it defines and its measure and check lines.
  *
  * Requests that wait are coalesced: when several arrive while the worker is busy (or before its
  * module has loaded), only the newest is solved and the older ones get no reply — the bench
  * shows only the newest text's result anyway. A solve, once started, runs to the end; the bench
  * terminates this worker when that is not worth waiting for.
  */
-import { readBlockDocs, solveNetlist } from '../../../solver';
+import { readBlockDocs, type OutlineUse } from '../../../solver';
 import { openBlockCache } from './block-cache';
-import { LibraryResolver, usesOf } from './library-resolver';
-import { namesOf } from './netlist-names';
-import type { SolveReply, SolveRequest, UsedBlock, WorkerMessage } from './solver-protocol';
+import { LibraryResolver } from './library-resolver';
+import { solveReply } from './solve-reply';
+import type { SolveRequest, UsedBlock, WorkerMessage } from './solver-protocol';
 
 /** The worker's global scope, typed by what is used (the app compiles against the DOM library). */
 interface WorkerScope {
@@ -44,22 +45,19 @@ async function drain(): Promise<void> {
     const started = performance.now();
     await library.preload(request.text, request.library ?? {});
     if (waiting) continue; // superseded while its library blocks were fetched
-    const result = solveNetlist(request.text, { resolveUse: library.resolve });
-    const names = { ...namesOf(request.text, library.resolve), uses: usedBlocks(request.text) };
-    const reply: SolveReply = { type: 'solved', id: request.id, result, text: request.text, names, solveMs: performance.now() - started };
-    scope.postMessage(reply);
+    const reply = solveReply(request.id, request.text, { resolveUse: library.resolve, describeUse: usedBlock });
+    // The bench's guess of the next solve's time counts the library fetches too.
+    scope.postMessage({ ...reply, solveMs: performance.now() - started });
     await new Promise((resolve) => setTimeout(resolve, 0)); // let requests sent during the solve arrive
   }
   draining = false;
 }
 
-/** The text's own `use` lines with what the resolver found for each. */
-function usedBlocks(text: string): UsedBlock[] {
-  return usesOf(text).map(({ path, version, line }) => {
-    const block = library.lookup(path, version);
-    if (!block) return { line, path, version, docs: [] };
-    return { line, path, version, origin: block.origin, state: block.state, newestVetted: block.newestVetted, docs: docsOf(block.source) };
-  });
+/** One of the text's own `use` lines with what the resolver found for it. */
+function usedBlock({ path, version, line }: OutlineUse): UsedBlock {
+  const block = library.lookup(path, version);
+  if (!block) return { line, path, version, docs: [] };
+  return { line, path, version, origin: block.origin, state: block.state, newestVetted: block.newestVetted, docs: docsOf(block.source) };
 }
 
 /** Block docs by source: a source is read once per worker (sources of a version never change). */

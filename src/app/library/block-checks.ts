@@ -4,11 +4,10 @@
  * first submission there are only this browser's checks.
  */
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
-import type { SolveResult } from '../../../solver';
-import { measureDefinitions, measureUnits } from '../bench/panels/measure-lines';
+import type { OutlineMeasure, SolveResult } from '../../../solver';
 import { STATUS_STYLES } from '../bench/panels/panel-styles';
 import { formatQuantity } from '../bench/panels/si-format';
-import { checkSubject, guessUnit } from '../bench/panels/units';
+import { checkParts, guessUnit, measureUnits } from '../bench/panels/units';
 import type { SolveStatus } from '../bench/solver-client';
 import { compareChecks, comparisonCounts, outcomesOf, type CheckComparison } from './check-compare';
 import type { CheckOutcome } from './library-api';
@@ -75,8 +74,8 @@ export class BlockChecks {
   readonly author = input<CheckOutcome[] | null>(null);
   /** This browser's solve of the same source. */
   readonly result = input<SolveResult | undefined>();
-  /** The source (for the units of measures the checks name). */
-  readonly source = input('');
+  /** The measure lines of the solved source (for the units of measures the checks name). */
+  readonly measureLines = input<readonly OutlineMeasure[]>([]);
   readonly status = input<SolveStatus>('idle');
   readonly failure = input<string | undefined>();
   readonly lineSelected = output<number>();
@@ -92,9 +91,9 @@ export class BlockChecks {
     return compareChecks(author, this.here());
   });
   protected readonly counts = computed(() => comparisonCounts(this.rows()));
-  private readonly units = computed(() => measureUnits(measureDefinitions(this.source())));
+  private readonly units = computed(() => measureUnits(this.measureLines()));
 
   protected value(row: CheckComparison, o: CheckOutcome): string {
-    return formatQuantity(o.value ?? undefined, guessUnit(checkSubject(row.text), this.units()));
+    return formatQuantity(o.value ?? undefined, guessUnit(checkParts(row.text).subject, this.units()));
   }
 }

@@ -5,7 +5,8 @@ import { RouterTestingHarness } from '@angular/router/testing';
 import { EditorView } from '@codemirror/view';
 import { solveNetlist } from '../../../solver';
 import { SOLVER_WORKER_FACTORY, type WorkerLike } from '../bench/solver-client';
-import { NO_NAMES, type SolveRequest, type WorkerMessage } from '../bench/solver-protocol';
+import { solveReply } from '../bench/solve-reply';
+import type { SolveRequest, WorkerMessage } from '../bench/solver-protocol';
 import { Session } from '../core/session';
 import type { Role } from '../core/team-api';
 import { outcomesOf } from './check-compare';
@@ -18,8 +19,8 @@ class SolvingWorker implements WorkerLike {
   onmessage: ((event: MessageEvent<WorkerMessage>) => void) | null = null;
   onerror: ((event: ErrorEvent) => void) | null = null;
   postMessage(m: SolveRequest): void {
-    const result = solveNetlist(m.text);
-    queueMicrotask(() => this.onmessage?.({ data: { type: 'solved', id: m.id, result, text: m.text, names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>));
+    const reply = solveReply(m.id, m.text);
+    queueMicrotask(() => this.onmessage?.({ data: reply } as MessageEvent<WorkerMessage>));
   }
   terminate(): void {}
 }

@@ -18,6 +18,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { filter, firstValueFrom, map } from 'rxjs';
 import type { SolveResult } from '../../../solver';
 import { SolverClient } from '../bench/solver-client';
+import type { SolveReply } from '../bench/solver-protocol';
 import { Cautions } from '../core/cautions';
 import { roleAtLeast } from '../core/session';
 import { apiErrorOf, type ApiError } from '../core/team-api';
@@ -131,7 +132,7 @@ export function lineNotes(reviews: BlockVersion['reviews']): LineNote[] {
             </section>
             <section class="right" aria-labelledby="nw-block-checks-head">
               <h2 id="nw-block-checks-head">Checks: the author's and this browser's</h2>
-              <nw-block-checks [author]="v.checks" [result]="here()" [source]="v.source" [status]="client.status()" [failure]="client.failure()" (lineSelected)="goToLine($event)" />
+              <nw-block-checks [author]="v.checks" [result]="here()?.result" [measureLines]="here()?.lines?.measures ?? []" [status]="client.status()" [failure]="client.failure()" (lineSelected)="goToLine($event)" />
               <nw-cautions />
               @if (v.can.submit) {
                 <div class="submit">
@@ -237,9 +238,9 @@ export class BlockPage {
   private readonly editor = viewChild(BlockEditor);
 
   /** This browser's solve of the shown source (not of an older one still arriving). */
-  protected readonly here = computed<SolveResult | undefined>(() => {
+  protected readonly here = computed<SolveReply | undefined>(() => {
     const reply = this.client.reply();
-    return reply && reply.text === this.shown()?.source ? reply.result : undefined;
+    return reply && reply.text === this.shown()?.source ? reply : undefined;
   });
   private readonly replies = toObservable(computed(() => ({ reply: this.client.reply(), failed: this.client.status() === 'failed' })));
   protected readonly notes = computed(() => lineNotes(this.shown()?.reviews ?? []));

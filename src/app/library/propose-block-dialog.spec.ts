@@ -2,9 +2,9 @@ import { TestBed } from '@angular/core/testing';
 import { MatDialog } from '@angular/material/dialog';
 import { provideRouter, Router } from '@angular/router';
 import { ApplicationRef, Component } from '@angular/core';
-import { solveNetlist } from '../../../solver';
 import { SOLVER_WORKER_FACTORY, type WorkerLike } from '../bench/solver-client';
-import { NO_NAMES, type SolveRequest, type WorkerMessage } from '../bench/solver-protocol';
+import { solveReply } from '../bench/solve-reply';
+import type { SolveRequest, WorkerMessage } from '../bench/solver-protocol';
 import { LibraryApi } from './library-api';
 import { openProposeBlockDialog } from './propose-block-dialog';
 import { FakeLibraryApi } from './testing/fake-library-api';
@@ -14,8 +14,8 @@ class SolvingWorker implements WorkerLike {
   onmessage: ((event: MessageEvent<WorkerMessage>) => void) | null = null;
   onerror: ((event: ErrorEvent) => void) | null = null;
   postMessage(m: SolveRequest): void {
-    const result = solveNetlist(m.text);
-    queueMicrotask(() => this.onmessage?.({ data: { type: 'solved', id: m.id, result, text: m.text, names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>));
+    const reply = solveReply(m.id, m.text);
+    queueMicrotask(() => this.onmessage?.({ data: reply } as MessageEvent<WorkerMessage>));
   }
   terminate(): void {}
 }

@@ -2,10 +2,10 @@ import { Component } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { provideRouter, Router } from '@angular/router';
 import { EditorView } from '@codemirror/view';
-import { solveNetlist } from '../../../solver';
 import { RESISTOR_TAIL_PAIR } from '../bench/panels/testing/netlists';
 import { SOLVER_WORKER_FACTORY, type WorkerLike } from '../bench/solver-client';
-import { NO_NAMES, type SolveRequest, type WorkerMessage } from '../bench/solver-protocol';
+import { solveReply } from '../bench/solve-reply';
+import type { SolveRequest, WorkerMessage } from '../bench/solver-protocol';
 import { FakeTeamApi, error } from '../bench/team/testing/fake-team-api';
 import { DRAFT_BACKEND, Drafts, MemoryDraftBackend } from '../core/drafts';
 import { TeamApi, type SharedNetlist } from '../core/team-api';
@@ -17,8 +17,8 @@ class SolvingWorker implements WorkerLike {
   onmessage: ((event: MessageEvent<WorkerMessage>) => void) | null = null;
   onerror: ((event: ErrorEvent) => void) | null = null;
   postMessage(m: SolveRequest): void {
-    const result = solveNetlist(m.text);
-    queueMicrotask(() => this.onmessage?.({ data: { type: 'solved', id: m.id, result, text: m.text, names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>));
+    const reply = solveReply(m.id, m.text);
+    queueMicrotask(() => this.onmessage?.({ data: reply } as MessageEvent<WorkerMessage>));
   }
   terminate(): void {}
 }

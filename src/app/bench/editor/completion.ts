@@ -4,69 +4,26 @@
  * and offers the names the netlist defines (from the parser's symbols) plus the language's own.
  */
 import type { Completion, CompletionContext, CompletionResult, CompletionSource } from '@codemirror/autocomplete';
-import { MODEL_KEYS, OPTION_KEYS, PART_KINDS, modelFamily } from '../../../../solver/parse/kinds';
+import { ANALYSIS_SPECS, FIGURES, FUNCTIONS, MODEL_KEYS, MODEL_KINDS, OPTION_KEYS, PART_KINDS, PIN_DOCS, STATEMENTS, functionSpec, modelFamily } from '../../../../solver';
 import type { NetlistNames } from '../solver-protocol';
-import { STATEMENT_KEYWORDS } from './nodewright-language';
 
-const STATEMENT_DETAIL: Record<string, string> = {
-  title: 'free text shown with the results',
-  param: 'param NAME = VALUE',
-  option: 'option NAME = VALUE',
-  model: 'model NAME: KIND(key=value, …)',
-  block: 'block NAME(pins) … end',
-  end: 'closes a block',
-  use: 'use path@version',
-  analyze: 'analyze ac | transfer | …',
-  ports: 'ports in=(a, b) out=(x, y)',
-  measure: 'measure NAME = EXPRESSION',
-  check: 'check EXPRESSION >= LIMIT',
-};
+/** Statement keywords with their shapes (the language's table). */
+const STATEMENT_OPTIONS: Completion[] = STATEMENTS.map((st) => ({ label: st.keyword, type: 'keyword', detail: st.syntax === st.keyword ? st.doc : st.syntax }));
 
-const KIND_DETAIL: Record<string, string> = {
-  res: 'resistor (a, b) Ω', cap: 'capacitor (a, b) F', ind: 'inductor (a, b) H',
-  vsrc: 'voltage source (p, n) V', isrc: 'current source (from, to) A',
-  vcvs: 'voltage-controlled voltage source (p, n, cp, cn)', vccs: 'voltage-controlled current source (from, to, cp, cn)',
-  npn: 'bipolar (c=, b=, e=)', pnp: 'bipolar (c=, b=, e=)',
-  nmos: 'MOS (d=, g=, s=, b=)', pmos: 'MOS (d=, g=, s=, b=)', diode: 'diode (a=, k=)',
-};
+/** The analyses; `ac` is completed with its usual sweep. */
+const ANALYSIS_OPTIONS: Completion[] = ANALYSIS_SPECS.map((a) => ({
+  label: a.kind, type: 'keyword', detail: a.detail, ...(a.kind === 'ac' ? { apply: `ac ${a.detail}` } : {}),
+}));
 
-const PIN_DETAIL: Record<string, string> = { c: 'collector', b: 'base / body', e: 'emitter', d: 'drain', g: 'gate', s: 'source', a: 'anode', k: 'cathode' };
+/** Result functions of measures and checks, with what they return. */
+const FUNCTION_OPTIONS: Completion[] = FUNCTIONS.map((f) => ({ label: f.name, type: 'function', detail: f.doc, apply: `${f.name}(` }));
 
-const ANALYSES: Completion[] = [
-  { label: 'ac', type: 'keyword', detail: 'from 10 Hz to 1 GHz per decade 20', apply: 'ac from 10 Hz to 1 GHz per decade 20' },
-  { label: 'transfer', type: 'keyword', detail: 'SOURCE from -100m to 100m step 1m' },
-  { label: 'vary', type: 'keyword', detail: 'PARAM over … | from … to … per decade N' },
-  { label: 'temp', type: 'keyword', detail: 'over -40 27 125' },
-  { label: 'noise', type: 'keyword', detail: 'out NODE in SOURCE from … to … per decade N' },
-  { label: 'mismatch', type: 'keyword', detail: 'runs 500 seed 7 beta 5% is 2% res 0.5%' },
-  { label: 'poles', type: 'keyword', detail: 'poles and zeros' },
-];
-
-/** Result functions of measures and checks, with what their argument names. */
-const FUNCTIONS: { name: string; detail: string; arg?: 'node' | 'part' | 'bjt' | 'mos' | 'device' | 'source' | 'curve' }[] = [
-  { name: 'v', detail: 'DC volts of a node, v(n) or v(a, b)', arg: 'node' },
-  { name: 'i', detail: 'DC amps through a part or source', arg: 'part' },
-  ...['ic', 'ib', 'ie', 'vbe', 'vce', 'rpi', 'ro', 'cpi', 'cmu'].map((name) => ({ name, detail: 'bipolar operating point', arg: 'bjt' as const })),
-  ...['id', 'vgs', 'vds', 'vov', 'gds'].map((name) => ({ name, detail: 'MOS operating point', arg: 'mos' as const })),
-  { name: 'gm', detail: 'transconductance of a device', arg: 'device' },
-  { name: 'db', detail: '20·log10 of a magnitude' },
-  { name: 'mag', detail: 'magnitude' },
-  { name: 'phase', detail: 'phase in degrees' },
-  { name: 'at', detail: 'at(curve, f): a curve at a frequency', arg: 'curve' },
-  { name: 'corner', detail: '−3 dB frequency of a curve', arg: 'curve' },
-  { name: 'unity', detail: 'frequency where |curve| crosses 1', arg: 'curve' },
-  { name: 'margin', detail: '180° + phase at the unity crossing', arg: 'curve' },
-  { name: 'zin', detail: 'impedance seen by a source', arg: 'source' },
-  { name: 'zout', detail: 'impedance from a node to ground', arg: 'node' },
-  { name: 'ac', detail: 'small-signal curve of a node', arg: 'node' },
-  { name: 'min', detail: 'smallest of' }, { name: 'max', detail: 'largest of' },
-  { name: 'abs', detail: 'absolute value' }, { name: 'sqrt', detail: 'square root' }, { name: 'log10', detail: 'decimal logarithm' },
-];
-const FIGURES: Completion[] = [
-  { label: 'adm', type: 'constant', detail: 'differential gain vod/vid' },
-  { label: 'acm', type: 'constant', detail: 'common-mode gain voc/vic' },
-  { label: 'cmrr', type: 'constant', detail: '|adm/acm|' },
-  { label: 'cmrr_db', type: 'constant', detail: '20·log10(cmrr)' },
+/** The ports figures. */
+const FIGURE_OPTIONS: Completion[] = FIGURES.map((f) => ({ label: f.name, type: 'constant', detail: f.doc }));
+/** Inside a curve function: the figures that stand for their curves, and `ac(`. */
+const CURVE_OPTIONS: Completion[] = [
+  ...FIGURES.filter((f) => f.curve).map((f) => ({ label: f.name, type: 'constant', detail: f.doc })),
+  { label: 'ac', type: 'function', detail: functionSpec('ac')?.doc, apply: 'ac(' },
 ];
 
 const WORD = /(?<![0-9.])[A-Za-z_][A-Za-z0-9_.]*$/;
@@ -105,7 +62,7 @@ function insideConnections(kind: string, inside: string, names: NetlistNames): C
   const pins = spec ? spec.pins : block!.pins;
   // Boosted in pin order, so the list reads c, b, e (d, g, s, b) rather than alphabetically.
   return pins.filter((p) => !used.has(p)).map((p, index, all) => ({
-    label: `${p}=`, type: 'property', boost: all.length - index, detail: spec ? `${PIN_DETAIL[p] ?? 'pin'}${spec.defaults?.[p] ? ` (defaults to ${spec.defaults[p]})` : ''}` : `pin of ${kind}`,
+    label: `${p}=`, type: 'property', boost: all.length - index, detail: spec ? `${PIN_DOCS[p] ?? 'pin'}${spec.defaults?.[p] ? ` (defaults to ${spec.defaults[p]})` : ''}` : `pin of ${kind}`,
   }));
 }
 
@@ -113,21 +70,21 @@ function insideConnections(kind: string, inside: string, names: NetlistNames): C
 function inExpression(before: string, names: NetlistNames): Completion[] {
   const call = /([A-Za-z_][A-Za-z0-9_]*)\(\s*(?:[A-Za-z0-9_.]*)$/.exec(before);
   if (call) {
-    const fn = FUNCTIONS.find((f) => f.name === call[1]);
-    switch (fn?.arg) {
+    switch (functionSpec(call[1])?.arg) {
       case 'node': return node(names);
       case 'part': return partsOf(names, (k) => !modelFamily(k));
-      case 'bjt': return partsOf(names, (k) => k === 'npn' || k === 'pnp' || k === '', 'device');
-      case 'mos': return partsOf(names, (k) => k === 'nmos' || k === 'pmos' || k === '', 'device');
-      case 'device': return partsOf(names, (k) => !!modelFamily(k) || k === '', 'device');
+      // Every part's kind is known, block instances' parts too (the solver's elaborated circuit).
+      case 'bjt': return partsOf(names, (k) => modelFamily(k) === 'bjt', 'device');
+      case 'mos': return partsOf(names, (k) => modelFamily(k) === 'mos', 'device');
+      case 'device': return partsOf(names, (k) => !!modelFamily(k), 'device');
       case 'source': return partsOf(names, (k) => k === 'vsrc' || k === 'isrc', 'source');
-      case 'curve': return [...FIGURES.slice(0, 3), ...FUNCTIONS.filter((f) => f.name === 'ac').map((f) => ({ label: 'ac', type: 'function', detail: f.detail, apply: 'ac(' }))];
+      case 'curve': return CURVE_OPTIONS;
       default: break;
     }
   }
   return [
-    ...FUNCTIONS.map((f) => ({ label: f.name, type: 'function', detail: f.detail, apply: `${f.name}(` })),
-    ...FIGURES,
+    ...FUNCTION_OPTIONS,
+    ...FIGURE_OPTIONS,
     ...names.measures.map((m) => ({ label: m, type: 'variable', detail: 'measure' })),
     ...names.params.map((p) => ({ label: p, type: 'variable', detail: 'param' })),
   ];
@@ -136,7 +93,7 @@ function inExpression(before: string, names: NetlistNames): Completion[] {
 /** The completions for the text of a line before the cursor, or undefined when none fit. */
 export function completionsFor(before: string, names: NetlistNames): Completion[] | undefined {
   if (/#/.test(before)) return undefined;
-  if (/^\s*[A-Za-z_]*$/.test(before)) return STATEMENT_KEYWORDS.map((k) => ({ label: k, type: 'keyword', detail: STATEMENT_DETAIL[k] }));
+  if (/^\s*[A-Za-z_]*$/.test(before)) return STATEMENT_OPTIONS;
   if (/^\s*title\b/.test(before) || /^\s*use\b/.test(before)) return undefined;
   let m: RegExpExecArray | null;
   if ((m = /^\s*model\s+[A-Za-z_]\w*\s*:\s*(\w*)\s*\(([^)]*)$/.exec(before))) {
@@ -144,9 +101,9 @@ export function completionsFor(before: string, names: NetlistNames): Completion[
     if (!family || /=\s*[^,\s]*$/.test(m[2])) return undefined;
     return Object.entries(MODEL_KEYS[family]).map(([k, spec]) => ({ label: `${k}=`, type: 'property', detail: spec.what }));
   }
-  if (/^\s*model\s+[A-Za-z_]\w*\s*:\s*\w*$/.test(before)) return ['npn', 'pnp', 'nmos', 'pmos', 'diode'].map((k) => ({ label: k, type: 'type', detail: `${k} model`, apply: `${k}(` }));
+  if (/^\s*model\s+[A-Za-z_]\w*\s*:\s*\w*$/.test(before)) return MODEL_KINDS.map((k) => ({ label: k, type: 'type', detail: `${k} model`, apply: `${k}(` }));
   if (/^\s*option\s+\w*$/.test(before)) return Object.entries(OPTION_KEYS).map(([k, s]) => ({ label: k, type: 'property', detail: s.what }));
-  if (/^\s*analyze\s+\w*$/.test(before)) return ANALYSES;
+  if (/^\s*analyze\s+\w*$/.test(before)) return ANALYSIS_OPTIONS;
   if ((m = /^\s*analyze\s+(\w+)\b/.exec(before))) {
     if (m[1] === 'transfer' && /^\s*analyze\s+transfer\s+\w*$/.test(before)) return partsOf(names, (k) => k === 'vsrc' || k === 'isrc', 'source');
     if (m[1] === 'vary' && /^\s*analyze\s+vary\s+\w*$/.test(before)) return names.params.map((p) => ({ label: p, type: 'variable', detail: 'param' }));
@@ -162,7 +119,7 @@ export function completionsFor(before: string, names: NetlistNames): Completion[
   if (/^\s*param\s+\w+\s*=/.test(before)) return names.params.map((p) => ({ label: p, type: 'variable', detail: 'param' }));
   if ((m = /^\s*[A-Za-z_]\w*\s*:\s*(\w*)$/.exec(before))) {
     return [
-      ...Object.keys(PART_KINDS).map((k) => ({ label: k, type: 'type', detail: KIND_DETAIL[k], apply: `${k}(` })),
+      ...Object.values(PART_KINDS).map((k) => ({ label: k.kind, type: 'type', detail: k.doc, apply: `${k.kind}(` })),
       ...names.blocks.map((b) => ({ label: b.name, type: 'class', detail: `block (${b.pins.join(', ')})`, apply: `${b.name}(` })),
     ];
   }

@@ -8,8 +8,7 @@
  */
 import type { Extension, Text } from '@codemirror/state';
 import { hoverTooltip, type EditorView, type Tooltip } from '@codemirror/view';
-import type { BlockDoc } from '../../../../solver';
-import { PART_KINDS } from '../../../../solver/parse/kinds';
+import { PART_KINDS, readBlockDocs, type BlockDoc } from '../../../../solver';
 import { STATE_CHIP } from '../../library/block-words';
 import type { BlockOrigin, LibraryEntry, NetlistNames, UsedBlock, UsedBlockState } from '../solver-protocol';
 
@@ -150,7 +149,8 @@ const localCache = new WeakMap<Text, Promise<BlockDoc[]>>();
 function localDocsOf(doc: Text): Promise<BlockDoc[]> {
   let docs = localCache.get(doc);
   if (!docs) {
-    docs = import('../../../../solver/parse/block-doc').then((m) => m.readBlockDocs(doc.toString()), () => []);
+    // Read a task later, off the keystroke that asked for the hover.
+    docs = Promise.resolve(doc).then((d) => readBlockDocs(d.toString())).catch(() => []);
     localCache.set(doc, docs);
   }
   return docs;

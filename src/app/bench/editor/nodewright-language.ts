@@ -8,23 +8,29 @@
  */
 import { HighlightStyle, LanguageSupport, StreamLanguage, syntaxHighlighting, type StreamParser, type StringStream } from '@codemirror/language';
 import { tags as t } from '@lezer/highlight';
+import { ANALYSIS_SPECS, FIGURES, GROUND, MISMATCH_KEYS, PART_KINDS, STATEMENTS } from '../../../../solver';
 
-/** Words that start a statement. */
-export const STATEMENT_KEYWORDS = ['title', 'param', 'option', 'model', 'block', 'end', 'use', 'analyze', 'ports', 'measure', 'check'] as const;
+/** Words that start a statement (the language's table). */
+export const STATEMENT_KEYWORDS: readonly string[] = STATEMENTS.map((st) => st.keyword);
 
-/** Words that carry meaning inside `analyze` and `ports` lines. */
-export const ANALYSIS_WORDS = [
-  'ac', 'transfer', 'vary', 'temp', 'noise', 'mismatch', 'poles',
-  'from', 'to', 'per', 'decade', 'step', 'over', 'out', 'in', 'runs', 'seed', 'at', 'beta', 'is', 'res',
-] as const;
+/**
+ * Words that carry meaning inside `analyze` and `ports` lines: the analyses and mismatch keys of
+ * the language's table, and the words that join their values (the parser reads those in place).
+ */
+export const ANALYSIS_WORDS: readonly string[] = [
+  ...ANALYSIS_SPECS.map((a) => a.kind),
+  'from', 'to', 'per', 'decade', 'step', 'over', 'out', 'in', 'runs', 'seed', 'at',
+  ...MISMATCH_KEYS,
+];
 
 /** Built-in part kinds. */
-export const PART_KIND_WORDS = ['res', 'cap', 'ind', 'vsrc', 'isrc', 'vcvs', 'vccs', 'npn', 'pnp', 'nmos', 'pmos', 'diode'] as const;
+export const PART_KIND_WORDS: readonly string[] = Object.keys(PART_KINDS);
 
-const STATEMENTS = new Set<string>(STATEMENT_KEYWORDS);
-const ANALYSIS = new Set<string>(ANALYSIS_WORDS);
-const KINDS = new Set<string>(PART_KIND_WORDS);
-const FIGURES = new Set(['adm', 'acm', 'cmrr', 'cmrr_db', 'gnd']);
+const STATEMENT_WORDS = new Set(STATEMENT_KEYWORDS);
+const ANALYSIS = new Set(ANALYSIS_WORDS);
+const KINDS = new Set(PART_KIND_WORDS);
+/** Names that mean something everywhere: the ports figures and the reference node. */
+const CONSTANTS = new Set([...FIGURES.map((f) => f.name), GROUND]);
 
 /** What the line began with; decides how the rest of it is read. */
 type LineKind = 'none' | 'part' | 'model' | 'statement' | 'analysis' | 'expression' | 'title' | 'use' | 'block';
@@ -66,7 +72,7 @@ function readIdentifier(stream: StringStream, state: State): string {
       state.line = 'part';
       return 'definition';
     }
-    if (STATEMENTS.has(word)) {
+    if (STATEMENT_WORDS.has(word)) {
       state.line =
         word === 'title' ? 'title'
         : word === 'model' ? 'model'
@@ -99,7 +105,7 @@ function readIdentifier(stream: StringStream, state: State): string {
   if (/^\s*=(?!=)/.test(stream.string.slice(stream.pos))) return state.line === 'statement' || state.line === 'expression' ? 'definition' : 'propertyName';
   if (next === '(') return 'function';
   if (state.line === 'analysis' && ANALYSIS.has(word)) return 'modifier';
-  if (FIGURES.has(word)) return 'constant';
+  if (CONSTANTS.has(word)) return 'constant';
   return 'variableName';
 }
 

@@ -1,8 +1,8 @@
 import { TestBed } from '@angular/core/testing';
-import { solveNetlist } from '../../../../solver';
-import type { BjtOp, SolveResult } from '../../../../solver/result';
-import { namesOf } from '../netlist-names';
+import { solveNetlist, type BjtOp, type SolveResult } from '../../../../solver';
+import { solveReply } from '../solve-reply';
 import { SOLVER_WORKER_FACTORY, SolverClient } from '../solver-client';
+import type { SolveReply } from '../solver-protocol';
 import { BiasPanel } from './bias-panel';
 import { formatSi } from './si-format';
 import { BROKEN, HEADROOM_TROUBLE, LOW_HEADROOM, RESISTOR_TAIL_PAIR } from './testing/netlists';
@@ -184,13 +184,9 @@ describe('BiasPanel', () => {
       'e1:  vcvs(c, gnd, a, gnd) 2',
       'rc:  res(c, gnd) 1k',
     ].join('\n');
-    TestBed.configureTestingModule({
-      providers: [SolverClient, { provide: SOLVER_WORKER_FACTORY, useValue: () => { throw new Error('no worker in a unit test'); } }],
-    });
-    const result = solveNetlist(text);
+    // The reply the bench's worker would send for this text: the same solve, with its names.
+    const { result } = answer(solveReply(1, text));
     expect(result.errors).toEqual([]);
-    // The reply the bench's worker would send for this text: the same solver and names.
-    TestBed.inject(SolverClient).reply.set({ type: 'solved', id: 1, result, text, names: namesOf(text), solveMs: 1 });
     const { el } = await render(result);
     const sources = rows(table(el, 'Sources'));
     expect(sources.map((r) => [r['Name'], r['Kind']])).toEqual([['vcc', 'vsrc'], ['ib', 'isrc'], ['g1', 'vccs'], ['e1', 'vcvs']]);
@@ -202,5 +198,23 @@ describe('BiasPanel', () => {
     expect(Math.abs(delivered - absorbed) / absorbed).toBeLessThan(1e-6);
     expect(el.querySelector('.note')!.textContent).toContain(`The sources deliver ${formatSi(absorbed, 'W')} in all`);
   });
+
+  it('gives the kind of every part inside a block instance, as the solver elaborated it', async () => {
+    const block = ['block divider(top, mid)', '  r1: res(top, mid) 1k', '  r2: res(mid, gnd) 1k', 'end', ''].join('\n');
+    const text = ['title Instance kinds', 'use lib/divider@1', 'vcc: vsrc(vcc, gnd) 5 V', 'd1:  divider(top=vcc, mid=mid)', 'rl:  res(mid, gnd) 10k'].join('\n');
+    const { result } = answer(solveReply(1, text, { resolveUse: (path, version) => (path === 'lib/divider' && version === 1 ? { ok: true, text: block } : { ok: false, message: 'no such block' }) }));
+    expect(result.errors).toEqual([]);
+    const { el } = await render(result);
+    expect(rows(table(el, 'Parts')).map((r) => [r['Name'], r['Kind']])).toEqual([['d1.r1', 'res'], ['d1.r2', 'res'], ['rl', 'res']]);
+    expect(rows(table(el, 'Sources')).map((r) => [r['Name'], r['Kind']])).toEqual([['vcc', 'vsrc']]);
+  });
 });
 
+/** Hands `reply` to the bench's solver client, as its worker would, with no worker behind it. */
+function answer(reply: SolveReply): SolveReply {
+  TestBed.configureTestingModule({
+    providers: [SolverClient, { provide: SOLVER_WORKER_FACTORY, useValue: () => { throw new Error('no worker in a unit test'); } }],
+  });
+  TestBed.inject(SolverClient).reply.set(reply);
+  return reply;
+}

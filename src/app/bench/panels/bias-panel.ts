@@ -2,7 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, inject, input, signal } f
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import type { SolveResult } from '../../../../solver/result';
+import type { SolveResult } from '../../../../solver';
 import { SolverClient } from '../solver-client';
 import {
   BJT_COLUMNS, branchColumns, branchGroups, DIODE_COLUMNS, deviceProblems, deviceRows, headroomFlag, MOS_COLUMNS, NODE_COLUMNS,

@@ -1,10 +1,9 @@
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
-import type { CheckResult, SolveResult } from '../../../../solver/result';
-import { measureDefinitions, measureUnits } from './measure-lines';
+import type { CheckResult, OutlineMeasure, SolveResult } from '../../../../solver';
 import { PanelNotice, panelNotice, STALE_TAG_STYLES } from './panel-notice';
 import { STATUS_STYLES } from './panel-styles';
 import { formatQuantity, formatSigned, type Unit } from './si-format';
-import { checkSubject, guessUnit } from './units';
+import { checkParts, guessUnit, measureUnits } from './units';
 
 const OPERATOR_SIGNS: Record<string, string> = { '>=': '≥', '<=': '≤', '>': '>', '<': '<', '=': '=' };
 
@@ -80,8 +79,8 @@ interface CheckRow {
 })
 export class ChecksPanel {
   readonly result = input<SolveResult | undefined>();
-  /** The netlist text, to learn the units of measures the checks refer to (optional). */
-  readonly netlist = input<string>();
+  /** The measure lines of the result's text, to learn the units of measures the checks refer to. */
+  readonly measureLines = input<readonly OutlineMeasure[]>([]);
   /** The result is from an earlier version of the netlist: no pass or fail is coloured. */
   readonly stale = input(false);
   /** The line of the chosen check. */
@@ -93,13 +92,11 @@ export class ChecksPanel {
     code: 'check cmrr_db >= 80',
   })));
 
-  private readonly knownUnits = computed(() => measureUnits(measureDefinitions(this.netlist())));
+  private readonly knownUnits = computed(() => measureUnits(this.measureLines()));
 
   readonly rows = computed<CheckRow[]>(() => (this.result()?.checks ?? []).map((check) => {
-    const subject = checkSubject(check.text);
+    const { subject, op, tolerance } = checkParts(check.text);
     const unit = guessUnit(subject, this.knownUnits());
-    const op = /(>=|<=|=|>|<)/.exec(check.text.slice(subject.length))?.[1] ?? '';
-    const tolerance = /(?:±|\+-)\s*(.+)$/.exec(check.text)?.[1]?.trim();
     const value = formatQuantity(check.value, unit);
     const limit = `${OPERATOR_SIGNS[op] ?? op} ${formatQuantity(check.limit, unit)}${tolerance ? ` ± ${tolerance}` : ''}`.trim();
     const margin = formatSigned(check.margin, unit);

@@ -1,13 +1,13 @@
 import { TestBed } from '@angular/core/testing';
-import { solveNetlist } from '../../../../solver';
-import type { SolveResult } from '../../../../solver/result';
+import { solveNetlist, solveWithOutline, type SolveResult } from '../../../../solver';
 import { MeasuresPanel } from './measures-panel';
 import { HEADROOM_TROUBLE, LOADED_PAIR, MOS_PAIR_SINGLE, RESISTOR_TAIL_PAIR } from './testing/netlists';
 
 async function render(result: SolveResult | undefined, netlist?: string) {
   const fixture = TestBed.createComponent(MeasuresPanel);
   fixture.componentRef.setInput('result', result);
-  if (netlist !== undefined) fixture.componentRef.setInput('netlist', netlist);
+  // The measure lines of `netlist`, as the worker's parse hands them over with the result.
+  if (netlist !== undefined) fixture.componentRef.setInput('measureLines', solveWithOutline(netlist).outline.measures);
   const lines: number[] = [];
   fixture.componentInstance.lineSelected.subscribe((l) => lines.push(l));
   await fixture.whenStable();

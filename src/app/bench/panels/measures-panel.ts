@@ -1,10 +1,10 @@
 import { NgTemplateOutlet } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
-import type { SolveResult } from '../../../../solver/result';
-import { measureDefinitions, measureUnits } from './measure-lines';
+import type { OutlineMeasure, SolveResult } from '../../../../solver';
 import { PanelNotice, panelNotice } from './panel-notice';
 import { STATUS_STYLES } from './panel-styles';
 import { formatQuantity, type Unit } from './si-format';
+import { measureUnits } from './units';
 
 interface MeasureRow {
   name: string;
@@ -17,9 +17,9 @@ interface MeasureRow {
 /**
  * Measures: each `measure` with its value in the unit its expression implies (db → dB,
  * corner/unity → Hz, margin → °, ic → A, ic·vce → W, v/i → Ω …; a ratio or anything the unit
- * algebra cannot name is a plain figure, never an SI prefix). When the netlist text
- * is given, each measure shows its expression and choosing it emits its line; without it there
- * is no line to go to, and nothing is emitted.
+ * algebra cannot name is a plain figure, never an SI prefix). Given the measure lines of the
+ * result's text, each measure shows its expression and choosing it emits its line; without them
+ * there is no line to go to, and nothing is emitted.
  */
 @Component({
   selector: 'nw-measures-panel',
@@ -67,8 +67,8 @@ interface MeasureRow {
 })
 export class MeasuresPanel {
   readonly result = input<SolveResult | undefined>();
-  /** The netlist text: gives each measure its line and expression (optional). */
-  readonly netlist = input<string>();
+  /** The measure lines of the result's text: each measure's line and expression. */
+  readonly measureLines = input<readonly OutlineMeasure[]>([]);
   /** The line of the chosen measure. */
   readonly lineSelected = output<number>();
 
@@ -79,13 +79,14 @@ export class MeasuresPanel {
   })));
 
   readonly rows = computed<MeasureRow[]>(() => {
-    const definitions = measureDefinitions(this.netlist());
-    const units = measureUnits(definitions);
+    const lines = this.measureLines();
+    const units = measureUnits(lines);
     return Object.entries(this.result()?.measures ?? {}).map(([name, value]) => {
       // The last definition wins, as a redefinition would in the solver's order.
-      const def = definitions.filter((d) => d.name === name).at(-1);
+      const def = lines.filter((d) => d.name === name).at(-1);
       const unit = units[name] ?? '';
-      return { name, value: formatQuantity(value, unit), unit, expr: def?.expr, line: def?.line };
+      // A continued line keeps its breaks in the expression: shown on one line.
+      return { name, value: formatQuantity(value, unit), unit, expr: def?.expression.replace(/\s+/g, ' '), line: def?.line };
     });
   });
 }

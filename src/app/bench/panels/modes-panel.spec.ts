@@ -1,6 +1,5 @@
 import { TestBed } from '@angular/core/testing';
-import { solveNetlist } from '../../../../solver';
-import type { SolveResult } from '../../../../solver/result';
+import { solveNetlist, type SolveResult } from '../../../../solver';
 import { ModesPanel } from './modes-panel';
 import { HEADROOM_TROUBLE, MOS_PAIR_SINGLE, RESISTOR_TAIL_PAIR } from './testing/netlists';
 

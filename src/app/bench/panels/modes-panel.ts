@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, input, viewChild } from '@angular/core';
-import type { ComplexFigure, PortsResult, SolveResult } from '../../../../solver/result';
+import type { ComplexFigure, PortsResult, SolveResult } from '../../../../solver';
 import { BodePlot } from './plot/bode-plot';
 import { curveMarkers } from './plot/curve-markers';
 import { ExportBar } from './plot/export-bar';

@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
-import type { SolveResult } from '../../../../solver/result';
+import type { SolveResult } from '../../../../solver';
 
 /** Why a panel has nothing to show, and what to do about it. */
 export interface Notice {

@@ -1,6 +1,5 @@
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
-import { solveNetlist } from '../../../../solver';
-import type { SolveResult } from '../../../../solver/result';
+import { solveNetlist, type SolveResult } from '../../../../solver';
 import { ResponsePanel } from './response-panel';
 import { BROKEN, HEADROOM_TROUBLE, LOADED_PAIR, RESISTOR_TAIL_PAIR } from './testing/netlists';
 

@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, input, signal, viewChild } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import type { SolveResult } from '../../../../solver/result';
+import type { SolveResult } from '../../../../solver';
 import { BodePlot } from './plot/bode-plot';
 import { curveMarkers } from './plot/curve-markers';
 import { ExportBar } from './plot/export-bar';

@@ -8,7 +8,7 @@
  * take no prefix either — "530 m" of a gain or "64.6 G" of a CMRR reads as a unit that is not
  * there — but plain figures, and powers of ten beyond 10⁻³…10⁵: `0.530`, `180`, `6.46 × 10¹⁰`.
  */
-import { INFINITE_OHMS } from '../../../../solver/report/si-format';
+import { INFINITE_OHMS } from '../../../../solver';
 
 const PREFIXES: ReadonlyArray<readonly [exponent: number, prefix: string]> = [
   [12, 'T'], [9, 'G'], [6, 'M'], [3, 'k'], [0, ''], [-3, 'm'], [-6, 'µ'], [-9, 'n'], [-12, 'p'], [-15, 'f'],

@@ -1,6 +1,5 @@
 import { TestBed } from '@angular/core/testing';
-import { solveNetlist } from '../../../../solver';
-import type { SolveResult } from '../../../../solver/result';
+import { solveNetlist, type SolveResult } from '../../../../solver';
 import { RESISTOR_TAIL } from '../examples/resistor-tail';
 import { formatSi } from './si-format';
 import { RESISTOR_TAIL_PAIR } from './testing/netlists';

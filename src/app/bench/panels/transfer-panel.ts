@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, input, signal, viewChild } from '@angular/core';
-import type { SolveResult } from '../../../../solver/result';
+import type { SolveResult } from '../../../../solver';
 import { PanelNotice, panelNotice } from './panel-notice';
 import { ExportBar } from './plot/export-bar';
 import { curveStyle } from './plot/palette';

@@ -1,5 +1,5 @@
-import { measureDefinitions, measureUnits } from './measure-lines';
-import { checkSubject, guessUnit } from './units';
+import { solveWithOutline } from '../../../../solver';
+import { checkParts, guessUnit, measureUnits } from './units';
 
 // Units of the result functions as the netlist language defines them (docs: netlist language §3).
 describe('guessUnit', () => {
@@ -94,24 +94,37 @@ describe('guessUnit: the unit algebra', () => {
     expect(guessUnit('vmin', { vmin: 'V' })).toBe('V');
   });
 
-  it('reads the subject of a check', () => {
-    expect(checkSubject('cmrr_db >= 80')).toBe('cmrr_db');
-    expect(checkSubject('ic(q1) = 2m ± 1%')).toBe('ic(q1)');
-    expect(checkSubject('vmin > 0.3')).toBe('vmin');
-    expect(checkSubject('id(m1) <= 100u')).toBe('id(m1)');
+  it('splits a check into subject, comparison, limit and tolerance', () => {
+    expect(checkParts('cmrr_db >= 80')).toEqual({ subject: 'cmrr_db', op: '>=', limit: '80' });
+    expect(checkParts('ic(q1) = 2m ± 1%')).toEqual({ subject: 'ic(q1)', op: '=', limit: '2m', tolerance: '1%' });
+    expect(checkParts('ratio == 1 +- 5%')).toEqual({ subject: 'ratio', op: '=', limit: '1', tolerance: '5%' });
+    expect(checkParts('vmin > 0.3').subject).toBe('vmin');
+    expect(checkParts('id(m1) <= 100u').subject).toBe('id(m1)');
+    // Only a comparison outside parentheses splits, as in the solver.
+    expect(checkParts('max(v(a) - v(b), 0) < 1m')).toEqual({ subject: 'max(v(a) - v(b), 0)', op: '<', limit: '1m' });
   });
 });
 
-describe('measureDefinitions', () => {
-  it('finds measures with their lines, skipping comments and joining continued lines', () => {
-    const text = 'title t\n# measure fake = db(adm)\nmeasure a0 = db(adm)   # gain\nmeasure vmin = min(vce(q1), \\\n   vce(q2))\n  measure f3=corner(adm)\n';
-    expect(measureDefinitions(text)).toEqual([
-      { name: 'a0', expr: 'db(adm)', line: 3 },
-      { name: 'vmin', expr: 'min(vce(q1), vce(q2))', line: 4 },
-      { name: 'f3', expr: 'corner(adm)', line: 6 },
-    ]);
-    expect(measureUnits(measureDefinitions(text))).toEqual({ a0: 'dB', vmin: 'V', f3: 'Hz' });
-    expect(measureDefinitions(undefined)).toEqual([]);
+describe('measureUnits', () => {
+  it('gives each measure of the outline its unit, a later one inheriting from an earlier', () => {
+    const text = 'title t\n# measure fake = db(adm)\nmeasure a0 = db(adm)   # gain\nmeasure vmin = min(v(a), \\\n   v(b))\n  measure f3=corner(adm)\nmeasure twice = 2 * vmin\n';
+    const { outline } = solveWithOutline(text);
+    expect(outline.measures.map((m) => [m.name, m.line])).toEqual([['a0', 3], ['vmin', 4], ['f3', 6], ['twice', 7]]);
+    expect(measureUnits(outline.measures)).toEqual({ a0: 'dB', vmin: 'V', f3: 'Hz', twice: 'V' });
+    expect(measureUnits([])).toEqual({});
+  });
+});
+
+describe('guessUnit reads the language table', () => {
+  it('knows every result function and device quantity the table gives a unit, log, exp and pow included', () => {
+    expect(guessUnit('ib(q1)')).toBe('A');
+    expect(guessUnit('gds(m1)')).toBe('S');
+    expect(guessUnit('vov(m1)')).toBe('V');
+    expect(guessUnit('zin(va)')).toBe('Ω');
+    expect(guessUnit('log(ic(q1)/ic(q2))')).toBe('');
+    expect(guessUnit('exp(1)')).toBe('');
+    expect(guessUnit('pow(v(a), 2) / ro(q1)')).toBe('W');
+    expect(guessUnit('nosuch(v(a))')).toBe('');
   });
 });
 

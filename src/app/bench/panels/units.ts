@@ -4,15 +4,15 @@
  * produced the number.
  *
  * A small unit algebra over the expression's tokens (the solver's own tokenizer, so a quantity
- * such as `1 kΩ` is one token): every value carries exponents of volt, ampere and second, and the
- * result is named when it is one the bench writes — V·A is W, V/A is Ω, A/V is S, A·s/V is F,
- * V·s/A is H, 1/s is Hz, V/V is a plain number. `db()` gives dB and `phase()`/`margin()` give °,
- * which survive only scaling and sums with plain numbers. A bare number (or a param, whose unit is
- * not written) adopts the unit of what it is added to; anything the algebra cannot name is a
- * plain number rather than a guess.
+ * such as `1 kΩ` is one token), the units of result functions and device quantities read from
+ * the language's table (solver/language/vocabulary.ts): every value carries exponents of volt,
+ * ampere and second, and the result is named when it is one the bench writes — V·A is W, V/A
+ * is Ω, A/V is S, A·s/V is F, V·s/A is H, 1/s is Hz, V/V is a plain number. `db()` gives dB and
+ * `phase()`/`margin()` give °, which survive only scaling and sums with plain numbers. A bare
+ * number (or a param, whose unit is not written) adopts the unit of what it is added to;
+ * anything the algebra cannot name is a plain number rather than a guess.
  */
-import { parseQuantity } from '../../../../solver/parse/quantity';
-import { tokenize, type Token } from '../../../../solver/parse/tokens';
+import { FIGURES, functionSpec, parseQuantity, tokenize, type OutlineMeasure, type Token } from '../../../../solver';
 import type { Unit } from './si-format';
 
 /** Exponents of V, A and s; `free` marks a bare number, which takes its neighbours' unit in sums. */
@@ -36,23 +36,29 @@ const NAMED: [Unit, Dims][] = [
 /** Units of a quantity written in an expression (`1 kΩ`, `10 pF`); H is V·s/A. */
 const QUANTITY_UNITS: Record<string, Dims> = { ...Object.fromEntries(NAMED.filter(([u]) => u)), H: dims(1, -1, 1), '%': FREE };
 
-/** The unit of each result function of the netlist language (§3). */
-const FUNCTION_UNITS: Record<string, Unit> = {
-  db: 'dB', corner: 'Hz', unity: 'Hz', margin: '°', phase: '°',
-  v: 'V', vbe: 'V', vce: 'V', vgs: 'V', vds: 'V', vov: 'V',
-  i: 'A', ic: 'A', ib: 'A', ie: 'A', id: 'A',
-  gm: 'S', gds: 'S',
-  rpi: 'Ω', ro: 'Ω', zin: 'Ω', zout: 'Ω',
-  cpi: 'F', cmu: 'F',
-  // ac(n) is the response to the sources' ac= drive, read as a gain (drive 1 V, get V/V).
-  ac: '',
+/**
+ * How a function whose table unit is "plain or its argument's" combines its arguments' units.
+ * Any other such function (log, exp, …) gives a plain number.
+ */
+const FROM_ARGUMENTS: Record<string, (args: Operand[]) => Value> = {
+  mag: (args) => first(args), abs: (args) => first(args), at: (args) => first(args),
+  min: (args) => sum(args.map((a) => a.unit)), max: (args) => sum(args.map((a) => a.unit)),
+  sqrt: (args) => power(first(args), 0.5),
+  pow: (args) => power(first(args), args[1]?.literal),
 };
+const first = (args: Operand[]): Value => args[0]?.unit ?? OTHER;
+
+/**
+ * ac(n) is the response to the sources' ac= drive, read as a gain (drive 1 V, get V/V): the table
+ * gives the node's volts, the panels show the ratio.
+ */
+const READ_AS_GAIN = new Set(['ac']);
 
 /** Constants of expressions (docs/netlist.md §2): plain numbers. */
 const CONSTANTS = new Set(['pi', 'e']);
 
-/** Figures of the ports analysis that stand as bare names. */
-const NAME_UNITS: Record<string, Unit> = { cmrr_db: 'dB', adm: '', acm: '', cmrr: '' };
+/** The ports figures stand as bare names: gains and ratios, and their `_db` forms in dB. */
+const FIGURE_UNITS: Record<string, Unit> = Object.fromEntries(FIGURES.map((f) => [f.name, f.name.endsWith('_db') ? 'dB' : '']));
 
 function fromUnit(unit: Unit): Value {
   if (unit === 'dB' || unit === '°') return { kind: unit };
@@ -181,22 +187,17 @@ class UnitParser {
 
   private name(name: string): Value {
     if (name in this.known) return fromUnit(this.known[name]);
-    if (name in NAME_UNITS) return fromUnit(NAME_UNITS[name]);
+    if (name in FIGURE_UNITS) return fromUnit(FIGURE_UNITS[name]);
     // A constant is a plain number; a param is a number whose unit is not written.
     return CONSTANTS.has(name) ? FREE : PARAM;
   }
 
   private call(fn: string, args: Operand[]): Value {
-    if (fn in FUNCTION_UNITS) return fromUnit(FUNCTION_UNITS[fn]);
-    const first = args[0]?.unit ?? OTHER;
-    switch (fn) {
-      case 'mag': case 'abs': case 'at': return first;
-      case 'min': case 'max': return sum(args.map((a) => a.unit));
-      case 'sqrt': return power(first, 0.5);
-      case 'pow': return power(first, args[1]?.literal);
-      case 'log': case 'log10': case 'exp': return PLAIN;
-      default: return OTHER;
-    }
+    const spec = functionSpec(fn);
+    if (!spec) return OTHER;
+    if (READ_AS_GAIN.has(fn)) return PLAIN;
+    if (spec.unit) return fromUnit(spec.unit as Unit);
+    return FROM_ARGUMENTS[fn]?.(args) ?? PLAIN;
   }
 }
 
@@ -217,8 +218,49 @@ export function guessUnit(expr: string, known: Record<string, Unit> = {}): Unit 
   return toUnit(unitOf(expr, known));
 }
 
-/** The left-hand side of a check's text: `ic(q1) = 1m ± 5%` → `ic(q1)`. */
-export function checkSubject(text: string): string {
-  const m = /^(.*?)(>=|<=|=|>|<)/s.exec(text);
-  return (m ? m[1] : text).trim();
+/** A check's comparison in its parts: `ic(q1) = 1m ± 5%` → `ic(q1)`, `=`, `1m`, `5%`. */
+export interface CheckParts {
+  subject: string;
+  op: string;
+  limit: string;
+  tolerance?: string;
+}
+
+const COMPARISONS = new Set(['>=', '<=', '==', '>', '<', '=']);
+
+/**
+ * Splits a check's comparison (its text in the result, or its expression in the outline) where
+ * the solver does: at the first comparison outside parentheses, then at `±` or `+-`.
+ */
+export function checkParts(text: string): CheckParts {
+  const tokens = tokenize(text);
+  let depth = 0;
+  let op: Token | undefined;
+  let tol: Token | undefined;
+  for (const t of tokens) {
+    if (t.text === '(') depth++;
+    else if (t.text === ')') depth--;
+    else if (depth === 0 && !op && COMPARISONS.has(t.text)) op = t;
+    else if (depth === 0 && op && (t.text === '\u00b1' || t.text === '+-')) {
+      tol = t;
+      break;
+    }
+  }
+  if (!op) return { subject: text.trim(), op: '', limit: '' };
+  return {
+    subject: text.slice(0, op.start).trim(),
+    op: op.text === '==' ? '=' : op.text,
+    limit: text.slice(op.end, tol ? tol.start : undefined).trim(),
+    ...(tol ? { tolerance: text.slice(tol.end).trim() } : {}),
+  };
+}
+
+/**
+ * The unit of every measure, in statement order so that a measure built on an earlier one
+ * (`measure vmin = …` then `check vmin > 0.3`) inherits its unit.
+ */
+export function measureUnits(measures: readonly OutlineMeasure[]): Record<string, Unit> {
+  const known: Record<string, Unit> = {};
+  for (const m of measures) known[m.name] = guessUnit(m.expression, known);
+  return known;
 }

@@ -5,7 +5,7 @@ import { Session } from '../../core/session';
 import { TeamApi } from '../../core/team-api';
 import { BenchStore } from '../bench-store';
 import { SOLVER_WORKER_FACTORY, SolverClient, type WorkerLike } from '../solver-client';
-import { NO_NAMES, type SolveRequest, type WorkerMessage } from '../solver-protocol';
+import { NO_LINES, NO_NAMES, type SolveRequest, type WorkerMessage } from '../solver-protocol';
 import { BEFORE_CONFLICT, RETRY_MS, TeamSync } from './team-sync';
 import { FakeTeamApi } from './testing/fake-team-api';
 
@@ -14,7 +14,7 @@ class QuietWorker implements WorkerLike {
   onerror: ((event: ErrorEvent) => void) | null = null;
   postMessage(m: SolveRequest): void {
     const result = { title: '', temp_c: 27, measures: {}, checks: [], warnings: [], errors: [] } as unknown as SolveResult;
-    queueMicrotask(() => this.onmessage?.({ data: { type: 'solved', id: m.id, result, text: m.text, names: NO_NAMES, solveMs: 1 } } as MessageEvent<WorkerMessage>));
+    queueMicrotask(() => this.onmessage?.({ data: { type: 'solved', id: m.id, result, text: m.text, names: NO_NAMES, lines: NO_LINES, solveMs: 1 } } as MessageEvent<WorkerMessage>));
   }
   terminate(): void {}
 }

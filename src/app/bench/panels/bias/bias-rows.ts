@@ -3,7 +3,7 @@
  * intended region, with headroom? Regions come from the solver; headroom uses the usual rules
  * of thumb (VCE ≥ 0.3 V for a bipolar in its active region, VDS at least 0.1 V beyond Vov for MOS).
  */
-import type { BjtOp, DeviceOp, DiodeOp, MosOp, OpResult } from '../../../../../solver/result';
+import type { BjtOp, DeviceOp, DiodeOp, MosOp, OpResult } from '../../../../../solver';
 import { formatSi } from '../si-format';
 import type { CellFlag, OpColumn } from './op-table';
 

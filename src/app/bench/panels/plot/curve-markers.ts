@@ -3,8 +3,7 @@
  * measures find them (the solver's own functions), so the marks on the plot agree with the
  * measures to the last digit.
  */
-import { corner, CORNER_DB, unity } from '../../../../../solver/measure/curve';
-import type { Curve } from '../../../../../solver/result';
+import { corner, CORNER_DB, unity, type Curve } from '../../../../../solver';
 import { formatSi } from '../si-format';
 import { PLOT_COLORS } from './palette';
 import type { PlotMarker } from './plot-geometry';

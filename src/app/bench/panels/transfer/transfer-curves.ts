@@ -4,7 +4,7 @@
  * vod = v(outP) − v(outN) when `ports` names a differential output, which curves are flat over
  * the sweep, which to show first and which one's linear range to mark.
  */
-import type { SolveResult } from '../../../../../solver/result';
+import type { SolveResult } from '../../../../../solver';
 import { portNames } from '../modes-panel';
 
 export interface TransferCurve {

@@ -1,9 +1,21 @@
 /**
- * Small complex-number helpers shared by ports, measures and curves. Phasors are plain
- * `{ re, im }` pairs (the engine's `Phasor`); reported figures add magnitude, dB and phase.
+ * Small complex-number helpers shared by the engine, ports, measures and curves. Phasors are
+ * plain `{ re, im }` pairs; reported figures add magnitude, dB and phase. The figure's shape is
+ * declared here, with the arithmetic that builds it, so that numeric/ needs no other stage; the
+ * result contract (circuit/result.ts) names it from here.
  */
-import type { Phasor } from '../analysis/engine-api';
-import type { ComplexFigure } from '../result';
+
+/** A complex number: the engine's small-signal values (node voltages, branch currents, gains). */
+export interface Phasor { re: number; im: number }
+
+/** A complex figure as reported: rectangular and polar. */
+export interface ComplexFigure {
+  re: number;
+  im: number;
+  mag: number;
+  db: number;
+  phase_deg: number;
+}
 
 /**
  * Magnitudes below this are reported as this many dB (−300 dB) instead of −∞: an ideal,

@@ -6,7 +6,7 @@ import type { ModelStmt, ValueText } from '../parse/ast';
 import { defaultBjtModel, defaultDiodeModel, defaultMosModel, article, MODEL_KEYS, MODEL_KINDS, modelFamily, type Range } from '../language/part-kinds';
 import type { QuantityUnit } from '../parse/quantity';
 import { didYouMean } from '../parse/suggest';
-import type { DiagnosticCode, SourceLoc } from './diagnostic';
+import type { DiagnosticCode, SourceLoc } from '../circuit/diagnostic';
 import type { ResolvedModel } from './elaborate-part';
 
 export interface ModelContext {

@@ -6,8 +6,8 @@ import type { Connection, Name, PartStmt, ValueText } from '../parse/ast';
 import { DEFAULT_MOS_L, DEFAULT_MOS_W, defaultBjtModel, defaultDiodeModel, defaultMosModel, article, type KeySpec, type PartKindSpec, type Range } from '../language/part-kinds';
 import type { QuantityUnit } from '../parse/quantity';
 import { didYouMean } from '../parse/suggest';
-import type { DiagnosticCode, SourceLoc } from './diagnostic';
-import type { AcSpec, BjtModel, DiodeModel, MosModel, Part } from './types';
+import type { DiagnosticCode, SourceLoc } from '../circuit/diagnostic';
+import type { AcSpec, BjtModel, DiodeModel, MosModel, Part } from '../circuit/types';
 
 /** A model resolved in scope. */
 export interface ResolvedModel {

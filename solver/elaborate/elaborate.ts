@@ -9,10 +9,10 @@ import { evaluateExpression, type NameScope } from '../parse/expression';
 import { OPTION_KEYS, PART_KINDS, rangeProblem, type Range } from '../language/part-kinds';
 import type { QuantityUnit } from '../parse/quantity';
 import { didYouMean } from '../parse/suggest';
-import type { DiagnosticBag, DiagnosticCode, SourceLoc } from './diagnostic';
+import type { DiagnosticBag, DiagnosticCode, SourceLoc } from '../circuit/diagnostic';
 import { buildPart, resolvePins, type PartContext, type ResolvedModel } from './elaborate-part';
 import { evaluateModel } from './elaborate-model';
-import { DEFAULT_OPTIONS, GROUND, type Circuit, type Part, type PartKind } from './types';
+import { DEFAULT_OPTIONS, GROUND, partNodes, type Circuit, type Part, type PartKind } from '../circuit/types';
 
 /** Flattened parts beyond this are refused: a netlist this big is a runaway block expansion. */
 export const MAX_PARTS = 100_000;
@@ -96,22 +96,6 @@ interface Sink {
   parts: Part[];
   nodes: Set<string>;
 }
-
-/** Canonical pin order of every part kind: the order in which nodes first appear. */
-function partNodes(p: Part): string[] {
-  switch (p.kind) {
-    case 'res': case 'cap': case 'ind': return [p.a, p.b];
-    case 'vsrc': return [p.p, p.n];
-    case 'isrc': return [p.from, p.to];
-    case 'vcvs': return [p.p, p.n, p.cp, p.cn];
-    case 'vccs': return [p.from, p.to, p.cp, p.cn];
-    case 'npn': case 'pnp': return [p.c, p.b, p.e];
-    case 'nmos': case 'pmos': return [p.d, p.g, p.s, p.b];
-    case 'diode': return [p.a, p.k];
-  }
-}
-
-export { partNodes };
 
 class Elaborator {
   private partCount = 0;

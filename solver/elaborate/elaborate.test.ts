@@ -4,8 +4,8 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { parseNetlist } from '../parse/index';
-import type { Bjt, Part } from './types';
+import { parseNetlist } from './parse-netlist';
+import type { Bjt, Part } from '../circuit/types';
 
 const MIRROR = `model qn: npn(beta=50)
 block mirror2(in, out, rail)

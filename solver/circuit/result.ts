@@ -1,0 +1,91 @@
+/**
+ * The solver's result: exactly the JSON object of the netlist-language contract §5.
+ * All numbers are finite, in SI base units; frequencies in Hz, phases in degrees.
+ */
+import type { ComplexFigure } from '../numeric/complex';
+import type { Curve } from '../numeric/phasor-curve';
+import type { Diagnostic } from './diagnostic';
+
+// The figure and the curve are declared beside the arithmetic that builds them (numeric/).
+export type { ComplexFigure, Curve };
+
+export interface BjtOp {
+  kind: 'npn' | 'pnp';
+  region: 'active' | 'saturated' | 'cutoff' | 'reverse';
+  ic: number; ib: number; ie: number; vbe: number; vce: number;
+  gm: number; rpi: number; ro: number; cpi: number; cmu: number;
+  /** Base resistance in the small-signal model (0 when absent). */
+  rb: number;
+}
+
+export interface MosOp {
+  kind: 'nmos' | 'pmos';
+  region: 'saturation' | 'triode' | 'cutoff';
+  id: number; vgs: number; vds: number; vov: number; vth: number;
+  gm: number; gds: number; gmb: number; cgs: number; cgd: number;
+}
+
+export interface DiodeOp {
+  kind: 'diode';
+  region: 'forward' | 'reverse';
+  id: number; vd: number; gd: number; cj: number;
+}
+
+export type DeviceOp = BjtOp | MosOp | DiodeOp;
+
+export interface OpResult {
+  nodes: Record<string, number>;
+  /** Independent and controlled voltage sources: voltage p−n and current p→n through the source. */
+  sources: Record<string, { v: number; i: number }>;
+  /** Two-terminal passive parts and current sources: current a→b (from→to) and voltage a−b. */
+  parts: Record<string, { i: number; v: number }>;
+  devices: Record<string, DeviceOp>;
+}
+
+export interface PortsResult {
+  at_hz: number;
+  output: 'differential' | 'single-ended';
+  adm: ComplexFigure;
+  acm: ComplexFigure;
+  cmrr: number;
+  cmrr_db: number;
+  /** The definitions used, in words, for reports. */
+  conventions: string;
+}
+
+export interface AcResult {
+  freq_hz: number[];
+  curves: Record<string, Curve>;
+}
+
+export interface TransferResult {
+  source: string;
+  x: number[];
+  curves: Record<string, number[]>;
+}
+
+export interface CheckResult {
+  text: string;
+  pass: boolean;
+  value: number;
+  /** The limit the value is compared against (the centre for `=`). */
+  limit: number;
+  /** Signed distance to failing, in the value's units: positive passes. */
+  margin: number;
+  line: number;
+}
+
+export interface SolveResult {
+  title: string;
+  temp_c: number;
+  op?: OpResult;
+  ports?: PortsResult;
+  ac?: AcResult;
+  transfer?: TransferResult;
+  measures: Record<string, number>;
+  checks: CheckResult[];
+  warnings: Diagnostic[];
+  errors: Diagnostic[];
+  // Later analyses (vary, temp, noise, mismatch, poles) add typed optional members of their own,
+  // named by their keyword, as solver/run/analyses.ts gains their rows.
+}
