@@ -26,6 +26,7 @@ import { bjtModel, circuitOf, type PartSpec } from '../solver/analysis/test-circ
 import type { Circuit } from '../solver/circuit/types';
 import { complexLuFactor, complexLuSolve } from '../solver/numeric/complex-lu';
 import { DenseRealLu } from '../solver/numeric/dense-lu';
+import { benchSweeps } from './bench-sweeps';
 
 /** A chain of `stages` differential stages; returns the circuit and its transistor count. */
 function diffChain(stages: number): { circuit: Circuit; transistors: number } {
@@ -239,6 +240,7 @@ function main(): void {
   const okFloor = big.every((r) => r.acUs / r.floorUs <= 1.5);
   const okPeer = big.every((r) => r.peerUs / r.acUs >= 20);
   console.log(`targets for n ≥ 30: ours/floor ≤ 1.5 ${okFloor ? 'met' : 'NOT met'}; peer/ours ≥ 20 ${okPeer ? 'met' : 'NOT met'}; OP < 20 ms ${opMs < 20 ? 'met' : 'NOT met'}`);
+  benchSweeps();
 }
 
 main();

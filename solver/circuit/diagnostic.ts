@@ -30,7 +30,7 @@ export const DIAGNOSTIC_CODES = [
   'bjt-saturated', 'bjt-reverse', 'bjt-cutoff', 'mos-triode', 'mos-cutoff',
   // Analyses.
   'analysis-not-available', 'ports-singular', 'ports-no-response', 'ports-current-drive', 'cmrr-unbounded',
-  'no-ac-source', 'transfer-point',
+  'no-ac-source', 'transfer-point', 'sweep-value-failed', 'sweep-too-large',
   // Measures and checks evaluated over the results.
   'measure-error',
   // The solver itself.

@@ -82,10 +82,38 @@ export interface SolveResult {
   ports?: PortsResult;
   ac?: AcResult;
   transfer?: TransferResult;
+  vary?: VaryResult;
+  temp?: TempResult;
   measures: Record<string, number>;
   checks: CheckResult[];
   warnings: Diagnostic[];
   errors: Diagnostic[];
-  // Later analyses (vary, temp, noise, mismatch, poles) add typed optional members of their own,
-  // named by their keyword, as solver/run/analyses.ts gains their rows.
+  // Later analyses (noise, mismatch, poles) add typed optional members of their own, named by
+  // their keyword, as solver/run/ gains them.
+}
+
+/**
+ * One value of a sweep: the members a plain solve would have at that value (the transfer curve
+ * is not re-run per value). `errors` holds why the circuit did not solve there, if it did not.
+ */
+export interface SweepRun {
+  op?: OpResult;
+  ports?: PortsResult;
+  ac?: AcResult;
+  measures: Record<string, number>;
+  checks: CheckResult[];
+  errors?: { line: number; col: number; message: string }[];
+}
+
+/** `analyze vary PARAM …`: `runs[i]` at `values[i]`. */
+export interface VaryResult {
+  param: string;
+  values: number[];
+  runs: SweepRun[];
+}
+
+/** `analyze temp over …`: `runs[i]` at `values_c[i]` °C. */
+export interface TempResult {
+  values_c: number[];
+  runs: SweepRun[];
 }

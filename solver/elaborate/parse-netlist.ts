@@ -52,6 +52,7 @@ export function parseNetlist(text: string, options: ParseOptions = {}): ParseRes
   let outline = emptyOutline();
   let requests = emptyRequests();
   let elab: Elaboration | undefined;
+  let withParams: ParseResult['withParams'];
   const requestLines = new Set<number>();
   try {
     const source = typeof text === 'string' ? text : '';
@@ -63,7 +64,15 @@ export function parseNetlist(text: string, options: ParseOptions = {}): ParseRes
     for (const r of file.requests) requestLines.add(r.loc.line);
     const uses = new UseResolver(bag, options.resolveUse);
     uses.resolveFile(file, undefined, []);
-    elab = elaborate(file, bag, { usedBlocks: uses.usedBlocks, useAnchors: uses.anchors, failedBlocks: uses.failedBlocks, paramOverrides: options.paramOverrides });
+    const elaborationOptions = { usedBlocks: uses.usedBlocks, useAnchors: uses.anchors, failedBlocks: uses.failedBlocks, paramOverrides: options.paramOverrides };
+    elab = elaborate(file, bag, elaborationOptions);
+    withParams = (overrides) => {
+      const own = new DiagnosticBag();
+      const variant = elaborate(file, own, { ...elaborationOptions, paramOverrides: { ...options.paramOverrides, ...overrides } });
+      checkTopology(variant.circuit.parts, own, { brokenNodes: variant.brokenNodes });
+      const params = Object.fromEntries([...variant.params].filter(([, v]) => Number.isFinite(v)));
+      return { ...(own.hasErrors ? {} : { circuit: variant.circuit }), params, diagnostics: own.items };
+    };
     addElaboration(outline, file, elab);
     symbols.models = outline.symbols.models.map((m) => m.name);
     symbols.blocks = outline.symbols.blocks;
@@ -87,5 +96,5 @@ export function parseNetlist(text: string, options: ParseOptions = {}): ParseRes
   // A mistake in an analyze, ports, measure or check line drops that request only: the circuit
   // still solves, so a designer typing a new measure keeps the bias and gains on screen.
   const circuitErrors = diagnostics.some((d) => d.severity === 'error' && (!requestLines.has(d.line) || d.code === 'internal'));
-  return { ...(elab && !circuitErrors ? { circuit: elab.circuit } : {}), requests, requestLines, diagnostics, symbols, outline };
+  return { ...(elab && !circuitErrors ? { circuit: elab.circuit, withParams } : {}), requests, requestLines, diagnostics, symbols, outline };
 }

@@ -45,4 +45,19 @@ export interface ParseResult {
   symbols: NetlistSymbols;
   /** The names with their kinds, the measure, check and `use` lines: what the editor shows. */
   outline: NetlistOutline;
+  /**
+   * The circuit elaborated again with some top-level params replaced (how `analyze vary` re-runs):
+   * the text is not read again and `use` lines are not resolved again. Present when the circuit
+   * elaborated; the variant's own problems (a value that makes a part invalid) come back with it.
+   */
+  withParams?: (overrides: Record<string, number>) => ParamVariant;
+}
+
+/** One elaboration of the circuit with replaced params. */
+export interface ParamVariant {
+  /** Absent when the replaced values make the circuit invalid (its errors say why). */
+  circuit?: Circuit;
+  /** Every top-level param after evaluation, the replaced ones included. */
+  params: Record<string, number>;
+  diagnostics: Diagnostic[];
 }

@@ -6,6 +6,7 @@ import type { Diagnostic } from '../circuit/diagnostic';
 import type { BjtOp, ComplexFigure, DeviceOp, DiodeOp, MosOp, SolveResult } from '../circuit/result';
 import { DEVICE_FIELDS } from '../language/vocabulary';
 import { formatDb, formatDeg, formatFigure, formatPlain, formatSi } from './si-format';
+import { sweepSections } from './sweep-table';
 
 /** The caution every report carries (design.md: "Cautions the product states"). */
 export const CAUTION =
@@ -122,6 +123,8 @@ export function formatReport(result: SolveResult): string {
     const span = x.length ? `${formatPlain(x[0])} to ${formatPlain(x[x.length - 1])}, ${x.length} points` : 'no points';
     lines.push(...section('Transfer', [`  ${result.transfer.source} from ${span}; curves: ${Object.keys(result.transfer.curves).join(', ')}`]));
   }
+
+  for (const sweep of sweepSections(result)) lines.push(...section(sweep.title, table(sweep.rows[0], sweep.rows.slice(1))));
 
   const measures = Object.entries(result.measures);
   lines.push(...section('Measures', table(['measure', 'value'], measures.map(([n, v]) => [n, formatFigure(v)]))));

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { ANALYSIS_SPECS } from '../language/vocabulary';
 import { solveNetlist } from '../solve';
 import { ANALYSIS_RUNNERS, RUNNING_KINDS } from './analyses';
+import { SWEEP_KINDS } from './sweeps';
 
 // A divider driven by one source with an ac value: every analysis has something to work on.
 const DIVIDER = ['param r = 1k', 'va: vsrc(a, gnd) 1 ac=1', 'r1: res(a, out) r', 'r2: res(out, gnd) 1k', 'c1: cap(out, gnd) 1n'].join('\n');
@@ -18,7 +19,7 @@ describe('analyses by kind', () => {
       const line = spec.kind === 'transfer' ? 'analyze transfer va from 0 to 1 step 0.5' : spec.kind === 'noise' ? 'analyze noise out out in va from 10 Hz to 1 kHz per decade 1' : spec.kind === 'vary' ? 'analyze vary r over 1k 2k' : spec.syntax;
       const result = solveNetlist(`${DIVIDER}\n${line}`);
       expect(result.errors, spec.kind).toEqual([]);
-      const running = (RUNNING_KINDS as string[]).includes(spec.kind);
+      const running = (RUNNING_KINDS as string[]).includes(spec.kind) || (SWEEP_KINDS as readonly string[]).includes(spec.kind);
       expect(spec.kind in result, spec.kind).toBe(running);
       expect(result.warnings.map((w) => w.code), spec.kind).toEqual(running ? [] : ['analysis-not-available']);
     }

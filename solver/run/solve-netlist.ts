@@ -13,6 +13,7 @@ import { parseNetlist } from '../elaborate/parse-netlist';
 import type { ParseOptions, ParseResult } from '../parse/parse-netlist';
 import { unavailableAnalyses } from './analyses';
 import { solveCircuit } from './solve-circuit';
+import { isSweep, runSweeps } from './sweeps';
 
 /** Options of a solve: how `use path@version` lines find their library files. */
 export interface SolveOptions {
@@ -65,10 +66,16 @@ function solveParsed(parsed: ParseResult): SolveResult {
   // The parser withholds the circuit when the circuit itself has errors; errors confined to
   // requests (a misspelt measure) leave it, and the rest of the results, in place.
   if (circuit) {
-    diagnostics.push(...unavailableAnalyses(parsed.requests.analyses));
+    diagnostics.push(...unavailableAnalyses(parsed.requests.analyses.filter((a) => !isSweep(a.kind))));
     const run = solveCircuit(circuit, parsed.requests);
     result = { ...result, ...run.result };
     diagnostics.push(...run.diagnostics);
+    // The sweeps re-run the circuit per value; only worth it when it solved as written.
+    if (run.result.op) {
+      const sweeps = runSweeps({ ...parsed, circuit });
+      result = { ...result, ...sweeps.members };
+      diagnostics.push(...sweeps.diagnostics);
+    }
   }
   const ordered = [...diagnostics].sort((a, b) => a.line - b.line || a.col - b.col);
   result.errors = ordered.filter((d) => d.severity === 'error');

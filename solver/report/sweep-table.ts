@@ -1,0 +1,35 @@
+/**
+ * The readable report's tables for `vary` and `temp`: one row per value with the ports figures,
+ * every measure and how many checks pass; a value where the circuit did not solve says so.
+ */
+import type { SolveResult, SweepRun } from '../circuit/result';
+import { formatDb, formatFigure, formatSi } from './si-format';
+
+/** The rows of one sweep under its header (empty when there is no sweep). */
+export function sweepRows(labelHeader: string, labels: readonly string[], runs: readonly SweepRun[]): string[][] {
+  const measures = [...new Set(runs.flatMap((r) => Object.keys(r.measures)))];
+  const withPorts = runs.some((r) => r.ports);
+  const header = [labelHeader, ...(withPorts ? ['adm dB', 'acm dB', 'cmrr dB'] : []), ...measures, 'checks'];
+  const rows = runs.map((run, k) => {
+    if (run.errors) return [labels[k], `did not solve: ${run.errors[0].message}`];
+    const p = run.ports;
+    const ports = withPorts ? (p ? [formatDb(p.adm.db), formatDb(p.acm.db), formatDb(p.cmrr_db)] : ['—', '—', '—']) : [];
+    const passed = run.checks.filter((c) => c.pass).length;
+    return [labels[k], ...ports, ...measures.map((m) => (m in run.measures ? formatFigure(run.measures[m]) : '—')), run.checks.length ? `${passed} of ${run.checks.length}` : '—'];
+  });
+  return [header, ...rows];
+}
+
+/** The sweep sections of a result: title and rows (header first). */
+export function sweepSections(result: SolveResult): { title: string; rows: string[][] }[] {
+  const out: { title: string; rows: string[][] }[] = [];
+  if (result.vary) {
+    const v = result.vary;
+    out.push({ title: `Vary ${v.param} (${v.values.length} values)`, rows: sweepRows(v.param, v.values.map((x) => formatSi(x)), v.runs) });
+  }
+  if (result.temp) {
+    const t = result.temp;
+    out.push({ title: `Temperature (${t.values_c.length} values)`, rows: sweepRows('°C', t.values_c.map((x) => String(x)), t.runs) });
+  }
+  return out;
+}
