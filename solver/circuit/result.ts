@@ -3,6 +3,7 @@
  * All numbers are finite, in SI base units; frequencies in Hz, phases in degrees.
  */
 import type { ComplexFigure } from '../numeric/complex';
+import type { SampleStats } from '../numeric/stats';
 import type { Curve } from '../numeric/phasor-curve';
 import type { Diagnostic } from './diagnostic';
 
@@ -84,6 +85,7 @@ export interface SolveResult {
   transfer?: TransferResult;
   vary?: VaryResult;
   temp?: TempResult;
+  mismatch?: MismatchResult;
   measures: Record<string, number>;
   checks: CheckResult[];
   warnings: Diagnostic[];
@@ -110,6 +112,21 @@ export interface VaryResult {
   param: string;
   values: number[];
   runs: SweepRun[];
+}
+
+/**
+ * `analyze mismatch`: statistics and samples by name — `adm`, `acm` (signed real at 0 Hz, else
+ * magnitude), `cmrr_db`, `vos` (with ports) and every measure — over the runs that solved.
+ */
+export interface MismatchResult {
+  runs: number;
+  seed: number;
+  stats: Record<string, SampleStats>;
+  samples: Record<string, number[]>;
+  /** Fraction of the solved runs in which every check passes. */
+  yield: number;
+  /** Runs whose operating point did not solve (left out of the statistics). */
+  failed_runs: number;
 }
 
 /** `analyze temp over …`: `runs[i]` at `values_c[i]` °C. */

@@ -258,7 +258,16 @@ export function parseAnalyze(ctx: RequestContext, s: TokenStmt): AnalysisRequest
         c.k++;
         if (key.text === 'runs') runs = c.number('', 'the number of runs', 'integer');
         else if (key.text === 'seed') seed = c.number('', 'the seed', 'any');
-        else if (MISMATCH_KEYS.includes(key.text)) sigmas[key.text] = c.number('%', `the spread of ${key.text}`, 'nonnegative');
+        else if (key.text === 'vth') sigmas.vth = c.number('V', 'the spread of vth (volts, e.g. 2m)', 'nonnegative');
+        else if (MISMATCH_KEYS.includes(key.text)) {
+          // Relative spreads are written as percentages: a bare 5 would mean 500 %.
+          const written = c.peek();
+          if (written && !written.text.includes('%')) {
+            c.fail(written.loc, `The spread of ${key.text} is a percentage: write it with %, e.g. \`${key.text} ${written.text}%\`.`);
+            break;
+          }
+          sigmas[key.text] = c.number('%', `the spread of ${key.text}`, 'nonnegative');
+        }
         else {
           ctx.error('unknown-param', key.loc, `\`${key.text}\` is not a mismatch parameter.`, didYouMean(key.text, ['runs', 'seed', ...MISMATCH_KEYS]) ?? `keys are runs, seed, ${MISMATCH_KEYS.join(', ')}`);
           c.ok = false;

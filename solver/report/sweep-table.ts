@@ -1,6 +1,7 @@
 /**
- * The readable report's tables for `vary` and `temp`: one row per value with the ports figures,
- * every measure and how many checks pass; a value where the circuit did not solve says so.
+ * The readable report's tables for `vary` and `temp` (one row per value with the ports figures,
+ * every measure and how many checks pass; a value where the circuit did not solve says so) and
+ * for `mismatch` (the statistics of each figure and the yield of the checks).
  */
 import type { SolveResult, SweepRun } from '../circuit/result';
 import { formatDb, formatFigure, formatSi } from './si-format';
@@ -26,6 +27,15 @@ export function sweepSections(result: SolveResult): { title: string; rows: strin
   if (result.vary) {
     const v = result.vary;
     out.push({ title: `Vary ${v.param} (${v.values.length} values)`, rows: sweepRows(v.param, v.values.map((x) => formatSi(x)), v.runs) });
+  }
+  if (result.mismatch) {
+    const m = result.mismatch;
+    const solved = m.runs - m.failed_runs;
+    const stat = (v: number) => formatFigure(v);
+    out.push({
+      title: `Mismatch (${solved} of ${m.runs} runs solved, seed ${m.seed}; checks all pass in ${(m.yield * 100).toFixed(1)} % of them)`,
+      rows: [['figure', 'mean', 'sd', 'min', 'p5', 'p50', 'p95', 'max'], ...Object.entries(m.stats).map(([name, s]) => [name, stat(s.mean), stat(s.sd), stat(s.min), stat(s.p5), stat(s.p50), stat(s.p95), stat(s.max)])],
+    });
   }
   if (result.temp) {
     const t = result.temp;

@@ -13,6 +13,7 @@ import { parseNetlist } from '../elaborate/parse-netlist';
 import type { ParseOptions, ParseResult } from '../parse/parse-netlist';
 import { unavailableAnalyses } from './analyses';
 import { solveCircuit } from './solve-circuit';
+import { runMismatch } from './mismatch';
 import { isSweep, runSweeps } from './sweeps';
 
 /** Options of a solve: how `use path@version` lines find their library files. */
@@ -66,7 +67,7 @@ function solveParsed(parsed: ParseResult): SolveResult {
   // The parser withholds the circuit when the circuit itself has errors; errors confined to
   // requests (a misspelt measure) leave it, and the rest of the results, in place.
   if (circuit) {
-    diagnostics.push(...unavailableAnalyses(parsed.requests.analyses.filter((a) => !isSweep(a.kind))));
+    diagnostics.push(...unavailableAnalyses(parsed.requests.analyses.filter((a) => !isSweep(a.kind) && a.kind !== 'mismatch')));
     const run = solveCircuit(circuit, parsed.requests);
     result = { ...result, ...run.result };
     diagnostics.push(...run.diagnostics);
@@ -75,6 +76,9 @@ function solveParsed(parsed: ParseResult): SolveResult {
       const sweeps = runSweeps({ ...parsed, circuit });
       result = { ...result, ...sweeps.members };
       diagnostics.push(...sweeps.diagnostics);
+      const mismatch = runMismatch(circuit, parsed.requests);
+      if (mismatch.member) result.mismatch = mismatch.member;
+      diagnostics.push(...mismatch.diagnostics);
     }
   }
   const ordered = [...diagnostics].sort((a, b) => a.line - b.line || a.col - b.col);
