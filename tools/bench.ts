@@ -26,6 +26,7 @@ import { bjtModel, circuitOf, type PartSpec } from '../solver/analysis/test-circ
 import type { Circuit } from '../solver/circuit/types';
 import { complexLuFactor, complexLuSolve } from '../solver/numeric/complex-lu';
 import { DenseRealLu } from '../solver/numeric/dense-lu';
+import { benchMismatch } from './bench-mismatch';
 import { benchSweeps } from './bench-sweeps';
 
 /** A chain of `stages` differential stages; returns the circuit and its transistor count. */
@@ -215,7 +216,7 @@ function fmt(v: number, digits = 3): string {
   return v >= 100 ? v.toFixed(0) : v.toPrecision(digits);
 }
 
-function main(): void {
+async function main(): Promise<void> {
   // Stage counts giving ≈ 10, 30, 100 and 300 nodes (5.5 nodes per stage plus 4 rails/inputs).
   const sizes = [1, 5, 17, 54];
   const rows = sizes.map(benchOne);
@@ -241,6 +242,7 @@ function main(): void {
   const okPeer = big.every((r) => r.peerUs / r.acUs >= 20);
   console.log(`targets for n ≥ 30: ours/floor ≤ 1.5 ${okFloor ? 'met' : 'NOT met'}; peer/ours ≥ 20 ${okPeer ? 'met' : 'NOT met'}; OP < 20 ms ${opMs < 20 ? 'met' : 'NOT met'}`);
   benchSweeps();
+  await benchMismatch();
 }
 
-main();
+void main();
