@@ -23,10 +23,13 @@ export interface NoiseRequest { kind: 'noise'; out: string; outRef?: string; inp
 /** `analyze mismatch runs N seed S beta 5% is 2% res 0.5% …` (later issue); sigmas are fractions. */
 export interface MismatchRequest { kind: 'mismatch'; runs: number; seed: number; sigmas: Record<string, number>; loc: SourceLoc }
 
+/** `analyze sensitivity`: (∂F/F)/(∂x/x) of every figure to every part value and device parameter. */
+export interface SensitivityRequest { kind: 'sensitivity'; loc: SourceLoc }
+
 /** `analyze poles` (later issue). */
 export interface PolesRequest { kind: 'poles'; loc: SourceLoc }
 
-export type AnalysisRequest = AcRequest | TransferRequest | VaryRequest | TempRequest | NoiseRequest | MismatchRequest | PolesRequest;
+export type AnalysisRequest = AcRequest | TransferRequest | VaryRequest | TempRequest | NoiseRequest | MismatchRequest | SensitivityRequest | PolesRequest;
 
 /** `ports in=(va, vb) out=(outa, outb) [at F]`; `outN` absent for a single-ended output. */
 export interface PortsRequest {

@@ -86,6 +86,7 @@ export interface SolveResult {
   vary?: VaryResult;
   temp?: TempResult;
   mismatch?: MismatchResult;
+  sensitivity?: SensitivityResult;
   measures: Record<string, number>;
   checks: CheckResult[];
   warnings: Diagnostic[];
@@ -127,6 +128,16 @@ export interface MismatchResult {
   yield: number;
   /** Runs whose operating point did not solve (left out of the statistics). */
   failed_runs: number;
+}
+
+/**
+ * `analyze sensitivity`: by figure name, the normalised sensitivities (∂F/F)/(∂x/x) to each part
+ * value or device parameter (`target` a part, or `model NAME` for a shared model), largest first.
+ */
+export interface SensitivityResult {
+  /** The relative step of the central differences. */
+  step: number;
+  figures: Record<string, { target: string; param: string; s: number }[]>;
 }
 
 /** `analyze temp over …`: `runs[i]` at `values_c[i]` °C. */

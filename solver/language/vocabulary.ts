@@ -35,7 +35,7 @@ export const STATEMENTS: readonly StatementSpec[] = [
 ];
 
 /** The analysis keywords of `analyze`. */
-export type AnalysisKind = 'ac' | 'transfer' | 'vary' | 'temp' | 'noise' | 'mismatch' | 'poles';
+export type AnalysisKind = 'ac' | 'transfer' | 'vary' | 'temp' | 'noise' | 'mismatch' | 'sensitivity' | 'poles';
 
 /** One analysis: its keyword, the line that asks for it and what it does. */
 export interface AnalysisSpec {
@@ -56,6 +56,7 @@ export const ANALYSIS_SPECS: readonly AnalysisSpec[] = [
   { kind: 'temp', syntax: 'analyze temp over -40 27 125', detail: 'over -40 27 125', doc: 're-runs the other analyses per temperature (°C)' },
   { kind: 'noise', syntax: 'analyze noise out outa in va from 10 Hz to 10 MHz per decade 10', detail: 'out NODE in SOURCE from … to … per decade N', doc: 'output and input-referred noise density' },
   { kind: 'mismatch', syntax: 'analyze mismatch runs 500 seed 7 beta 5% is 2% res 0.5%', detail: 'runs 500 seed 7 beta 5% is 2% res 0.5%', doc: 'Monte Carlo spreads of the ports figures and measures' },
+  { kind: 'sensitivity', syntax: 'analyze sensitivity', detail: 'what moves each figure most', doc: 'normalised sensitivities of the ports figures and measures to every part value and device parameter', once: true },
   { kind: 'poles', syntax: 'analyze poles', detail: 'poles and zeros', doc: 'natural frequencies of the linearised circuit' },
 ];
 

@@ -289,6 +289,9 @@ export function parseAnalyze(ctx: RequestContext, s: TokenStmt): AnalysisRequest
       result = { kind: 'mismatch', runs, seed, sigmas, loc };
       break;
     }
+    case 'sensitivity':
+      result = { kind: 'sensitivity', loc };
+      break;
     case 'poles':
       result = { kind: 'poles', loc };
       break;

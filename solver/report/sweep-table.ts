@@ -1,7 +1,8 @@
 /**
  * The readable report's tables for `vary` and `temp` (one row per value with the ports figures,
  * every measure and how many checks pass; a value where the circuit did not solve says so) and
- * for `mismatch` (the statistics of each figure and the yield of the checks).
+ * for `mismatch` (the statistics of each figure and the yield of the checks) and `sensitivity`
+ * (the five largest per figure).
  */
 import type { SolveResult, SweepRun } from '../circuit/result';
 import { formatDb, formatFigure, formatSi } from './si-format';
@@ -36,6 +37,13 @@ export function sweepSections(result: SolveResult): { title: string; rows: strin
       title: `Mismatch (${solved} of ${m.runs} runs solved, seed ${m.seed}; checks all pass in ${(m.yield * 100).toFixed(1)} % of them)`,
       rows: [['figure', 'mean', 'sd', 'min', 'p5', 'p50', 'p95', 'max'], ...Object.entries(m.stats).map(([name, s]) => [name, stat(s.mean), stat(s.sd), stat(s.min), stat(s.p5), stat(s.p50), stat(s.p95), stat(s.max)])],
     });
+  }
+  if (result.sensitivity) {
+    const rows: string[][] = [['figure', 'rank', 'part or model', 'parameter', 'S = (∂F/F)/(∂x/x)']];
+    for (const [name, list] of Object.entries(result.sensitivity.figures)) {
+      list.slice(0, 5).forEach((x, k) => rows.push([k === 0 ? name : '', String(k + 1), x.target, x.param, x.s.toFixed(4)]));
+    }
+    out.push({ title: `Sensitivity (what moves each figure most; central differences, step ±${result.sensitivity.step * 100} %)`, rows });
   }
   if (result.temp) {
     const t = result.temp;

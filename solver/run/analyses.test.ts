@@ -19,7 +19,7 @@ describe('analyses by kind', () => {
       const line = spec.kind === 'transfer' ? 'analyze transfer va from 0 to 1 step 0.5' : spec.kind === 'noise' ? 'analyze noise out out in va from 10 Hz to 1 kHz per decade 1' : spec.kind === 'vary' ? 'analyze vary r over 1k 2k' : spec.syntax;
       const result = solveNetlist(`${DIVIDER}\n${line}`);
       expect(result.errors, spec.kind).toEqual([]);
-      const running = (RUNNING_KINDS as string[]).includes(spec.kind) || (SWEEP_KINDS as readonly string[]).includes(spec.kind) || spec.kind === 'mismatch';
+      const running = (RUNNING_KINDS as string[]).includes(spec.kind) || (SWEEP_KINDS as readonly string[]).includes(spec.kind) || spec.kind === 'mismatch' || spec.kind === 'sensitivity';
       expect(spec.kind in result, spec.kind).toBe(running);
       expect(result.warnings.map((w) => w.code), spec.kind).toEqual(running ? [] : ['analysis-not-available']);
     }

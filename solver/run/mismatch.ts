@@ -14,7 +14,7 @@
  */
 import type { MismatchRequest, PortsRequest, Requests } from '../circuit/analyses';
 import { diagnostic, type Diagnostic } from '../circuit/diagnostic';
-import type { ComplexFigure, MismatchResult } from '../circuit/result';
+import type { ComplexFigure, MismatchResult, SolveResult } from '../circuit/result';
 import type { Circuit, Part } from '../circuit/types';
 import { isOpFailure, solveOperatingPoint } from '../analysis/operating-point';
 import { streamFor, type RandomStream } from '../numeric/random';
@@ -70,7 +70,7 @@ function scalar(f: ComplexFigure): number {
 }
 
 /** What each run solves: no curve analyses unless a measure reads a curve. */
-function perRunRequests(requests: Requests): Requests {
+export function perRunRequests(requests: Requests): Requests {
   const readsCurves = [...requests.measures.map((m) => m.expr), ...requests.checks.flatMap((c) => [c.lhs, c.rhs])].some((e) => /\b(ac|at|corner|unity|margin)\s*\(/.test(e));
   return { ...requests, analyses: readsCurves ? requests.analyses.filter((a) => a.kind === 'ac') : [] };
 }
@@ -93,17 +93,30 @@ export function mismatchSamples(circuit: Circuit, requests: Requests, request: M
 function oneRun(circuit: Circuit, requests: Requests, run: number, target: number | undefined): MismatchSample {
   const solved = solveCircuit(circuit, requests);
   if (!solved.result.op) return { run, error: solved.diagnostics.find((d) => d.severity === 'error')?.message ?? 'the operating point did not converge' };
+  const figures = figuresOf(solved.result, requests);
+  // vos sits after the ports figures and before the measures, as the §5 member lists them.
   const values: Record<string, number> = {};
-  const ports = solved.result.ports;
+  for (const [name, v] of Object.entries(figures)) {
+    if (name === 'cmrr_db' && requests.ports) {
+      values[name] = v;
+      const vos = inputOffset(circuit, requests.ports, target ?? 0, figures.adm);
+      if (vos !== undefined) values.vos = vos;
+    } else values[name] = v;
+  }
+  return { run, values, pass: solved.result.checks.every((c) => c.pass) };
+}
+
+/** The figures of one run by name: adm, acm, cmrr_db (with ports), then every finite measure. */
+export function figuresOf(result: Pick<SolveResult, 'ports' | 'measures'>, requests: Requests): Record<string, number> {
+  const values: Record<string, number> = {};
+  const ports = result.ports;
   if (ports && requests.ports) {
     values.adm = scalar(ports.adm);
     values.acm = scalar(ports.acm);
     values.cmrr_db = ports.cmrr_db;
-    const vos = inputOffset(circuit, requests.ports, target ?? 0, values.adm);
-    if (vos !== undefined) values.vos = vos;
   }
-  for (const [name, v] of Object.entries(solved.result.measures)) if (Number.isFinite(v)) values[name] = v;
-  return { run, values, pass: solved.result.checks.every((c) => c.pass) };
+  for (const [name, v] of Object.entries(result.measures)) if (Number.isFinite(v)) values[name] = v;
+  return values;
 }
 
 /** The output a nulled input returns to: 0 V differential, or the single-ended output without mismatch. */

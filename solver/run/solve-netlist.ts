@@ -7,6 +7,7 @@
  * `internal-error` diagnostic and a final pass replaces any non-finite number with 0 and reports it.
  */
 import { diagnostic, tidyDiagnostic, type Diagnostic } from '../circuit/diagnostic';
+import type { AnalysisRequest } from '../circuit/analyses';
 import type { SolveResult } from '../circuit/result';
 import { emptyOutline, type NetlistOutline } from '../parse/outline';
 import { parseNetlist } from '../elaborate/parse-netlist';
@@ -14,11 +15,17 @@ import type { ParseOptions, ParseResult } from '../parse/parse-netlist';
 import { unavailableAnalyses } from './analyses';
 import { solveCircuit } from './solve-circuit';
 import { runMismatch } from './mismatch';
+import { runSensitivity } from './sensitivity';
 import { isSweep, runSweeps } from './sweeps';
 
-/** Options of a solve: how `use path@version` lines find their library files. */
+/** Options of a solve: how `use path@version` lines find their library files, and what to leave out. */
 export interface SolveOptions {
   resolveUse?: ParseOptions['resolveUse'];
+  /**
+   * Analyses not to run here (the bench runs `mismatch` over a pool of workers instead); their
+   * requests come back in `OutlinedSolve.skipped` when the circuit solved.
+   */
+  skip?: ReadonlyArray<'mismatch'>;
 }
 
 /** A solve's result with the outline of the text from the same parse. */
@@ -26,6 +33,8 @@ export interface OutlinedSolve {
   /** The §5 result, exactly what solveNetlist returns. */
   result: SolveResult;
   outline: NetlistOutline;
+  /** The requests `options.skip` left out, when the circuit solved (they would have run). */
+  skipped: AnalysisRequest[];
 }
 
 /** Solves a netlist. Never throws. */
@@ -41,9 +50,11 @@ export function solveNetlist(text: string, options: SolveOptions = {}): SolveRes
 export function solveWithOutline(text: string, options: SolveOptions = {}): OutlinedSolve {
   let result: SolveResult;
   let parsed: ParseResult | undefined;
+  const skipped: AnalysisRequest[] = [];
   try {
     parsed = parseNetlist(typeof text === 'string' ? text : '', { resolveUse: options.resolveUse });
-    result = solveParsed(parsed);
+    result = solveParsed(parsed, options.skip ?? []);
+    if (result.op) skipped.push(...parsed.requests.analyses.filter((a) => a.kind === 'mismatch' && options.skip?.includes(a.kind)));
   } catch (err) {
     const message = err instanceof Error ? err.message : String(err);
     result = emptyResult('', 27);
@@ -53,21 +64,21 @@ export function solveWithOutline(text: string, options: SolveOptions = {}): Outl
   // Every message leaves through the one helper that shortens long user tokens.
   clean.errors = clean.errors.map(tidyDiagnostic);
   clean.warnings = clean.warnings.map(tidyDiagnostic);
-  return { result: clean, outline: parsed?.outline ?? emptyOutline() };
+  return { result: clean, outline: parsed?.outline ?? emptyOutline(), skipped };
 }
 
 function emptyResult(title: string, tempC: number): SolveResult {
   return { title, temp_c: tempC, measures: {}, checks: [], warnings: [], errors: [] };
 }
 
-function solveParsed(parsed: ParseResult): SolveResult {
+function solveParsed(parsed: ParseResult, skip: ReadonlyArray<'mismatch'>): SolveResult {
   const diagnostics: Diagnostic[] = [...parsed.diagnostics];
   const circuit = parsed.circuit;
   let result = emptyResult(circuit?.title ?? '', circuit?.options.temp ?? 27);
   // The parser withholds the circuit when the circuit itself has errors; errors confined to
   // requests (a misspelt measure) leave it, and the rest of the results, in place.
   if (circuit) {
-    diagnostics.push(...unavailableAnalyses(parsed.requests.analyses.filter((a) => !isSweep(a.kind) && a.kind !== 'mismatch')));
+    diagnostics.push(...unavailableAnalyses(parsed.requests.analyses.filter((a) => !isSweep(a.kind) && a.kind !== 'mismatch' && a.kind !== 'sensitivity')));
     const run = solveCircuit(circuit, parsed.requests);
     result = { ...result, ...run.result };
     diagnostics.push(...run.diagnostics);
@@ -76,9 +87,14 @@ function solveParsed(parsed: ParseResult): SolveResult {
       const sweeps = runSweeps({ ...parsed, circuit });
       result = { ...result, ...sweeps.members };
       diagnostics.push(...sweeps.diagnostics);
-      const mismatch = runMismatch(circuit, parsed.requests);
-      if (mismatch.member) result.mismatch = mismatch.member;
-      diagnostics.push(...mismatch.diagnostics);
+      if (!skip.includes('mismatch')) {
+        const mismatch = runMismatch(circuit, parsed.requests);
+        if (mismatch.member) result.mismatch = mismatch.member;
+        diagnostics.push(...mismatch.diagnostics);
+      }
+      const sensitivity = runSensitivity(circuit, parsed.requests);
+      if (sensitivity.member) result.sensitivity = sensitivity.member;
+      diagnostics.push(...sensitivity.diagnostics);
     }
   }
   const ordered = [...diagnostics].sort((a, b) => a.line - b.line || a.col - b.col);
