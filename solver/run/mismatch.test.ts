@@ -4,23 +4,13 @@ import type { MismatchRequest } from '../circuit/analyses';
 import type { Circuit } from '../circuit/types';
 import { isOpFailure, solveOperatingPoint } from '../analysis/operating-point';
 import { expectNearlyEqual } from '../testing/nearly-equal';
+import { RESISTOR_PAIR } from '../testing/pair-netlist';
 import { inputOffset, mismatchSamples, perturbedCircuit, summarizeMismatch } from './mismatch';
 
 const VT_27C = (1.380649e-23 * 300.15) / 1.602176634e-19;
 
 const PAIR = (mismatch: string) => `title  Resistor-loaded pair
-model qn: npn(is=1e-16, beta=100, va=80)
-vcc: vsrc(vcc, gnd) 10
-vee: vsrc(vee, gnd) -10
-va: vsrc(ina, gnd) 0
-vb: vsrc(inb, gnd) 0
-q1: npn(c=outa, b=ina, e=tail) qn
-q2: npn(c=outb, b=inb, e=tail) qn
-rca: res(vcc, outa) 5k
-rcb: res(vcc, outb) 5k
-rtail: res(tail, vee) 4.65k
-ports in=(va, vb) out=(outa, outb)
-analyze mismatch ${mismatch}
+${RESISTOR_PAIR}analyze mismatch ${mismatch}
 measure a0 = db(adm)
 check a0 >= 40
 `;
