@@ -31,5 +31,5 @@ export { parseQuantity } from './parse/quantity';
 export { INFINITE_OHMS } from './report/si-format';
 export { corner, unity, CORNER_DB } from './measure/curve';
 // Mismatch runs by range and their summary: the bench spreads the runs over several workers.
-export { mismatchSamples, summarizeMismatch, perturbedCircuit, type MismatchSample } from './run/mismatch';
+export { mismatchSamples, summarizeMismatch, perturbedCircuit, MAX_MISMATCH_WORK, type MismatchSample } from './run/mismatch';
 export type { SampleStats } from './numeric/stats';

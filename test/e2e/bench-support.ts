@@ -2,7 +2,7 @@
  * Helpers for the bench's browser tests: typing into the CodeMirror editor and waiting for the
  * solve that follows.
  */
-import type { Page } from 'playwright-core';
+import type { BrowserContext, Page } from 'playwright-core';
 
 /**
  * Focuses the editor by clicking near its top left corner (a click on the middle of a long
@@ -83,4 +83,28 @@ export async function pasteNetlist(page: Page, text: string): Promise<void> {
   await focusEditor(page);
   await page.keyboard.press('Control+A');
   await page.keyboard.insertText(text);
+}
+
+/** A bench page that records uncaught errors and console errors. */
+export interface WatchedPage extends Page {
+  problems: string[];
+}
+
+/**
+ * Opens `url` (a bench address) in a new page of `context` that records uncaught errors and
+ * console errors, after `beforeLoad` (e.g. an init script), and waits for the first results.
+ */
+export async function openWatchedBench(context: BrowserContext, url: string, beforeLoad?: (page: Page) => Promise<unknown>): Promise<WatchedPage> {
+  const page = (await context.newPage()) as WatchedPage;
+  page.problems = [];
+  page.on('pageerror', (e) => page.problems.push(e.message));
+  page.on('console', (m) => {
+    // The team server is not asked for in these tests; a refused fetch of it is not a fault of the bench.
+    if (m.type() === 'error' && !/Failed to load resource/.test(m.text())) page.problems.push(m.text());
+  });
+  await beforeLoad?.(page);
+  await page.goto(url);
+  await page.locator('.cm-content').waitFor();
+  await waitForPainted(page);
+  return page;
 }

@@ -9,7 +9,7 @@ import { join } from 'node:path';
 import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { launchBrowser, RESULTS_DIR, type Browser } from '../support/browser';
-import { replaceNetlist, waitForPainted } from './bench-support';
+import { openWatchedBench, replaceNetlist, waitForPainted, type WatchedPage } from './bench-support';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -39,23 +39,11 @@ measure f3 = corner(adm)
 measure fu = unity(adm)
 `;
 
-interface Watched extends Page {
-  problems: string[];
-}
+type Watched = WatchedPage;
 
 /** A page on the bench that records uncaught errors and console errors (a ResizeObserver loop among them). */
-async function openBench(query = ''): Promise<Watched> {
-  const page = (await browser.context.newPage()) as Watched;
-  page.problems = [];
-  page.on('pageerror', (e) => page.problems.push(e.message));
-  page.on('console', (m) => {
-    // The team server is not asked for here; a refused fetch of it is not a fault of the plots.
-    if (m.type() === 'error' && !/Failed to load resource/.test(m.text())) page.problems.push(m.text());
-  });
-  await page.goto(inject('baseUrl') + '/bench' + query);
-  await page.locator('.cm-content').waitFor();
-  await waitForPainted(page);
-  return page;
+function openBench(query = ''): Promise<Watched> {
+  return openWatchedBench(browser.context, inject('baseUrl') + '/bench' + query);
 }
 
 const shot = (page: Page, name: string) => page.screenshot({ path: join(RESULTS_DIR, name) });

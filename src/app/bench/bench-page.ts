@@ -57,7 +57,7 @@ export const PAINTED_MARK = 'nw-painted';
       <nw-problems-list problems [diagnostics]="store.diagnostics()" [stale]="store.stale()" (selected)="goToProblem($event)" (pinChange)="movePin($event)" />
       <nw-results-panels class="results" [result]="store.shown()" [lines]="store.shownLines()" [stale]="store.stale()" [errorCount]="store.errorCount()"
         [status]="client.status()" [slow]="client.slow()" [solveMs]="store.solveMs()" [failure]="client.failure()"
-        (cancel)="client.cancel()" (lineSelected)="store.selectLine($event)" />
+        [params]="store.names().params" (cancel)="client.cancel()" (lineSelected)="store.selectLine($event)" />
     </nw-bench-columns>
   `,
   styles: `

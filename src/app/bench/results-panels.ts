@@ -1,6 +1,6 @@
 /**
- * The results side of a bench: the summary line, the panels (Bias, Response, Modes, Checks &
- * measures) and the standing caution. The bench and the shared view both render it, from the
+ * The results side of a bench: the summary line, the panels (Bias, Response, Modes, Transfer,
+ * Sweeps, Checks & measures) and the standing caution. The bench and the shared view both render it, from the
  * same solver, so a reviewer sees the very numbers the author saw.
  */
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
@@ -10,8 +10,10 @@ import { Cautions } from '../core/cautions';
 import { BiasPanel } from './panels/bias-panel';
 import { ChecksPanel } from './panels/checks-panel';
 import { MeasuresPanel } from './panels/measures-panel';
+import { MismatchPanel } from './panels/mismatch-panel';
 import { ModesPanel } from './panels/modes-panel';
 import { ResponsePanel } from './panels/response-panel';
+import { SweepsPanel } from './panels/sweeps-panel';
 import { TransferPanel } from './panels/transfer-panel';
 import { ResultsSummary } from './results-summary';
 import type { SolveStatus } from './solver-client';
@@ -21,7 +23,7 @@ let noteIds = 0;
 
 @Component({
   selector: 'nw-results-panels',
-  imports: [ResultsSummary, Cautions, MatTabsModule, BiasPanel, ResponsePanel, ModesPanel, ChecksPanel, MeasuresPanel, TransferPanel],
+  imports: [ResultsSummary, Cautions, MatTabsModule, BiasPanel, ResponsePanel, ModesPanel, ChecksPanel, MeasuresPanel, TransferPanel, SweepsPanel, MismatchPanel],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <nw-results-summary [result]="result()" [stale]="stale()" [errorCount]="errorCount()"
@@ -40,6 +42,12 @@ let noteIds = 0;
       </mat-tab>
       <mat-tab label="Transfer">
         <ng-template matTabContent><div class="panel"><nw-transfer-panel [result]="result()" /></div></ng-template>
+      </mat-tab>
+      <mat-tab label="Sweeps">
+        <ng-template matTabContent><div class="panel"><nw-sweeps-panel [result]="result()" [measureLines]="lines().measures" [params]="params()" [stale]="stale()" /></div></ng-template>
+      </mat-tab>
+      <mat-tab label="Mismatch">
+        <ng-template matTabContent><div class="panel"><nw-mismatch-panel [result]="result()" [lines]="lines()" /></div></ng-template>
       </mat-tab>
       <mat-tab>
         <ng-template mat-tab-label>
@@ -80,6 +88,8 @@ export class ResultsPanels {
   readonly result = input<SolveResult | undefined>();
   /** The measure and check lines of that result's text. */
   readonly lines = input<RequestLines>(NO_LINES);
+  /** The netlist's params (the outline's names), for the Sweeps tab's suggestion. */
+  readonly params = input<readonly string[]>([]);
   /** The result is not the current text's (see SolveView): every figure is marked, no pass is green. */
   readonly stale = input(false);
   readonly errorCount = input(0);

@@ -3,22 +3,32 @@
  * defines (the outline's symbols with its `use` lines as resolved) and its measure and check lines.
  * The worker sends it; the specs' fake workers build theirs with it too, so they answer as it does.
  */
-import { solveWithOutline, type OutlineUse, type SolveOptions } from '../../../solver';
-import type { SolveReply, UsedBlock } from './solver-protocol';
+import { solveWithOutline, type MismatchRequest, type OutlineUse, type SolveOptions } from '../../../solver';
+import type { LibraryContext, MismatchAsk, SolveReply, UsedBlock } from './solver-protocol';
 
 /** What is known of a `use` line beyond the line itself: by default, nothing (no library). */
 export type DescribeUse = (use: OutlineUse) => UsedBlock;
 
 const UNRESOLVED: DescribeUse = (use) => ({ ...use, docs: [] });
 
-/** Solves `text` once and shapes the reply to request `id`. */
-export function solveReply(id: number, text: string, options: { resolveUse?: SolveOptions['resolveUse']; describeUse?: DescribeUse } = {}): SolveReply {
+/**
+ * Solves `text` once and shapes the reply to request `id`. `analyze mismatch` is left out of the
+ * solve and reported in `mismatch` (with `library`, where the text's `use` lines resolved from):
+ * the Mismatch tab runs it over a pool of workers (see mismatch/mismatch-pool.ts).
+ */
+export function solveReply(id: number, text: string, options: { resolveUse?: SolveOptions['resolveUse']; describeUse?: DescribeUse; library?: LibraryContext } = {}): SolveReply {
   const started = performance.now();
-  const { result, outline } = solveWithOutline(text, { resolveUse: options.resolveUse });
+  const { result, outline, skipped } = solveWithOutline(text, { resolveUse: options.resolveUse, skip: ['mismatch'] });
+  const mismatch = skipped.find((a): a is MismatchRequest => a.kind === 'mismatch');
   return {
     type: 'solved', id, result, text,
     names: { ...outline.symbols, uses: outline.uses.map(options.describeUse ?? UNRESOLVED) },
     lines: { measures: outline.measures, checks: outline.checks },
     solveMs: performance.now() - started,
+    ...(mismatch ? { mismatch: mismatchAsk(mismatch, options.library ?? {}) } : {}),
   };
+}
+
+function mismatchAsk(request: MismatchRequest, library: LibraryContext): MismatchAsk {
+  return { line: request.loc.line, runs: request.runs, seed: request.seed, sigmas: { ...request.sigmas }, library };
 }

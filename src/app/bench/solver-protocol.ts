@@ -72,6 +72,21 @@ export interface LibraryContext {
   pinned?: PinnedBlock[];
 }
 
+/**
+ * An `analyze mismatch` line of the solved text. The live solve leaves it out (it would hold up
+ * the results for seconds); the Mismatch tab runs it over a pool of workers when asked.
+ */
+export interface MismatchAsk {
+  /** 1-based line of the `analyze mismatch` statement. */
+  line: number;
+  runs: number;
+  seed: number;
+  /** Spreads by key: relative (0.05 for 5 %), `vth` in volts. */
+  sigmas: Record<string, number>;
+  /** Where the text's `use` lines resolved from: the pool's workers resolve them the same way. */
+  library: LibraryContext;
+}
+
 /** Bench → worker. */
 export interface SolveRequest {
   type: 'solve';
@@ -97,6 +112,8 @@ export interface SolveReply {
   lines: RequestLines;
   /** Wall time of the solve inside the worker, ms (the bench's guess of how long the next will take). */
   solveMs: number;
+  /** The text's `analyze mismatch`, left out of this solve, when its circuit solved. */
+  mismatch?: MismatchAsk;
 }
 
 /** Worker → bench, once its module has loaded. */

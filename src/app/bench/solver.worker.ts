@@ -45,7 +45,8 @@ async function drain(): Promise<void> {
     const started = performance.now();
     await library.preload(request.text, request.library ?? {});
     if (waiting) continue; // superseded while its library blocks were fetched
-    const reply = solveReply(request.id, request.text, { resolveUse: library.resolve, describeUse: usedBlock });
+    // `analyze mismatch` is left out and reported: the Mismatch tab runs it over its own workers.
+    const reply = solveReply(request.id, request.text, { resolveUse: library.resolve, describeUse: usedBlock, library: request.library ?? {} });
     // The bench's guess of the next solve's time counts the library fetches too.
     scope.postMessage({ ...reply, solveMs: performance.now() - started });
     await new Promise((resolve) => setTimeout(resolve, 0)); // let requests sent during the solve arrive

@@ -33,6 +33,9 @@ export const PLOT_STYLESHEET = [
   `${s} .halo{stroke:${c.paper};stroke-width:4px;paint-order:stroke;stroke-linejoin:round}`,
   `${s} .band{fill:${c.band}}`,
   `${s} .band-edge{stroke:${c.marker};stroke-dasharray:4 3}`,
+  `${s} .rule-line{stroke:${c.marker};stroke-dasharray:6 3}`,
+  `${s} .rule-label{fill:${c.marker};font-weight:600}`,
+  `${s} .points circle{stroke:${c.paper};stroke-width:1}`,
   `${s} .caption{font-weight:700}`,
   `${s} .swatch{stroke-width:2.5}`,
 ].join('\n');

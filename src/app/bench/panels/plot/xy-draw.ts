@@ -10,7 +10,7 @@ import {
   addClip, CURSOR_STRIP, drawExportLegend, drawMarkers, haloText, horizontals, PATH_DIGITS, prepareSvg, round, verticals, type G, type MarkerMark,
 } from './draw-common';
 import type { LabelRequest } from './label-place';
-import type { XyGeometry, XySeries } from './xy-geometry';
+import type { XyGeometry, XyRule, XySeries } from './xy-geometry';
 
 /** A marked span of the x axis and the curve whose range it is. */
 export interface XyBand {
@@ -33,7 +33,10 @@ export interface XyLabels {
 }
 
 /** Redraws the whole plot with an empty cursor layer. Returns the ids of labels dropped for lack of room. */
-export function drawXy(svgEl: SVGSVGElement, geo: XyGeometry, xs: readonly number[], series: readonly XySeries[], band: XyBand | undefined, labels: XyLabels): string[] {
+export function drawXy(
+  svgEl: SVGSVGElement, geo: XyGeometry, xs: readonly number[], series: readonly XySeries[], band: XyBand | undefined, labels: XyLabels,
+  rules: readonly XyRule[] = [],
+): string[] {
   const { svg, clipId } = prepareSvg(svgEl, geo.width, geo.height);
   const root = svg.append('g').attr('transform', `translate(${geo.left},0)`);
   const xPx = geo.xTicks.map((v) => geo.x(v));
@@ -78,11 +81,30 @@ export function drawXy(svgEl: SVGSVGElement, geo: XyGeometry, xs: readonly numbe
         .attr('d', path(xs.map((_, k) => k)) ?? '')
         .attr('stroke', s.style.color).attr('stroke-dasharray', s.style.dash || null);
     }
+    drawRules(g, geo, rules.filter((r) => r.unit === panel.unit), panel.y);
+    // Dots are left unclipped: a sweep's end values sit on the frame and would show only half.
+    for (const s of series.filter((c) => c.unit === panel.unit && c.points)) {
+      const dots = g.append('g').attr('class', 'points').attr('data-key', s.key).attr('fill', s.style.color);
+      for (const [k, v] of s.values.entries()) {
+        if (!Number.isFinite(v) || !Number.isFinite(xs[k])) continue;
+        dots.append('circle').attr('cx', round(geo.x(xs[k]))).attr('cy', round(panel.y(v))).attr('r', 3.5);
+      }
+    }
   }
   const dropped = band ? bandMarks(root, geo, xs, series, band, bottomOfAll) : [];
   drawExportLegend(svg, geo.width, geo.height, geo.left, series, labels.caption);
   root.append('g').attr('class', 'cursor').attr('data-export', 'skip');
   return dropped;
+}
+
+/** Dashed lines at the rules' values, each labelled at its right end (just above, or below near the top). */
+function drawRules(g: G, geo: XyGeometry, rules: readonly XyRule[], y: (v: number) => number): void {
+  for (const r of rules) {
+    const at = round(y(r.value));
+    const rule = g.append('g').attr('class', 'rule');
+    rule.append('path').attr('class', 'rule-line').attr('d', horizontals([at], 0, geo.innerWidth));
+    haloText(rule, 'rule-label', geo.innerWidth - 4, at < 30 ? at + 14 : at - 5, 'end', r.label);
+  }
 }
 
 /** The band's label and the rings at its ends on the marked curve, placed clear of each other and of the cursor's strip. */

@@ -4,10 +4,10 @@
  * with round ticks, a left margin wide enough for the longest tick label, and the sample
  * nearest to a point. Kept pure so it is tested without a browser.
  */
-import { scaleLinear, type ScaleLinear } from 'd3';
+import { scaleLinear, scaleLog, type ScaleContinuousNumeric, type ScaleLinear } from 'd3';
 import { formatTick } from '../si-format';
 import { textWidth } from './label-place';
-import { linearTicks } from './log-ticks';
+import { linearTicks, logTicks } from './log-ticks';
 import type { CurveStyle } from './palette';
 import type { PanelBox } from './plot-geometry';
 
@@ -19,6 +19,17 @@ export interface XySeries {
   unit: string;
   values: readonly number[];
   style: CurveStyle;
+  /** A dot at every sample too: few samples (the values of a sweep) read as points, not as a curve. */
+  points?: boolean;
+}
+
+/** A horizontal line across a panel at a y value: a check's limit on the plotted quantity. */
+export interface XyRule {
+  value: number;
+  /** The panel it goes to. */
+  unit: string;
+  /** Written at its right end, e.g. "check a0 ≥ 40.0 dB". */
+  label: string;
 }
 
 export interface XyPanel {
@@ -34,7 +45,8 @@ export interface XyGeometry {
   height: number;
   left: number;
   innerWidth: number;
-  x: ScaleLinear<number, number>;
+  /** Linear, or logarithmic when asked (`xLog`). */
+  x: ScaleContinuousNumeric<number, number>;
   xTicks: number[];
   panels: XyPanel[];
 }
@@ -51,6 +63,12 @@ export interface XyLayoutInput {
   height: number;
   x: readonly number[];
   series: readonly XySeries[];
+  /** A logarithmic x axis (every x must be positive). */
+  xLog?: boolean;
+  /** Lines whose values the y axis must show as well as the curves'. */
+  rules?: readonly XyRule[];
+  /** Title of the y axis when there is one panel, instead of the unit's. */
+  yTitle?: string;
 }
 
 /** Lays out the plot: one panel per unit in order of first appearance, sharing the height evenly. */
@@ -61,22 +79,32 @@ export function layoutXy(input: XyLayoutInput): XyGeometry {
   const innerHeight = Math.max(60, height - MARGIN.top - MARGIN.bottom);
   const panelHeight = (innerHeight - MARGIN.gap * (units.length - 1)) / units.length;
   const xExtent = extent([input.x]) ?? [0, 1];
-  const xFit = fit(xExtent, false);
+  const xLog = input.xLog === true && xExtent[0] > 0;
+  const xFit = xLog ? logFit(xExtent) : fit(xExtent, false);
+  const rules = input.rules ?? [];
   const fitted = units.map((unit, k) => {
     const box: PanelBox = { top: MARGIN.top + k * (panelHeight + MARGIN.gap), height: panelHeight };
-    const yFit = fit(extent(series.filter((s) => s.unit === unit).map((s) => s.values)) ?? [0, 1], true);
+    const columns = [...series.filter((s) => s.unit === unit).map((s) => s.values), rules.filter((r) => r.unit === unit).map((r) => r.value)];
+    const yFit = fit(extent(columns) ?? [0, 1], true);
     return { unit, box, yFit };
   });
   // Wide enough for the longest tick label and the rotated title beside it.
   const labelWidth = Math.max(...fitted.flatMap((p) => p.yFit.ticks.map((v) => textWidth(formatTick(v, p.unit)))), 20);
   const left = Math.ceil(Math.max(58, labelWidth + 8 + TITLE_ROOM));
   const innerWidth = Math.max(40, width - left - MARGIN.right);
-  const x = scaleLinear().domain(xFit.domain as [number, number]).range([0, innerWidth]);
+  const x = (xLog ? scaleLog() : scaleLinear()).domain(xFit.domain as [number, number]).range([0, innerWidth]);
   const panels = fitted.map(({ unit, box, yFit }) => ({
-    unit, box, title: UNIT_TITLES[unit] ?? (unit ? `(${unit})` : 'Value'), ticks: yFit.ticks,
+    unit, box, title: (fitted.length === 1 ? input.yTitle : undefined) ?? UNIT_TITLES[unit] ?? (unit ? `(${unit})` : 'Value'), ticks: yFit.ticks,
     y: scaleLinear().domain(yFit.domain as [number, number]).range([box.top + box.height, box.top]),
   }));
-  return { width, height, left, innerWidth, x, xTicks: linearTicks(xFit.domain[0], xFit.domain[1], Math.max(3, Math.floor(innerWidth / 80))).major, panels };
+  const labels = Math.max(3, Math.floor(innerWidth / 80));
+  const xTicks = xLog ? logTicks(xFit.domain[0], xFit.domain[1], labels).major : linearTicks(xFit.domain[0], xFit.domain[1], labels).major;
+  return { width, height, left, innerWidth, x, xTicks, panels };
+}
+
+/** A log axis over the values exactly, widened to a factor of two each way when it is a single value. */
+function logFit([lo, hi]: [number, number]): { domain: [number, number] } {
+  return hi > lo ? { domain: [lo, hi] } : { domain: [lo / 2, lo * 2] };
 }
 
 /** Min and max of the finite values of all columns. */

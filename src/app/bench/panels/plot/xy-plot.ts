@@ -5,7 +5,7 @@ import { formatSi } from '../si-format';
 import { exportSize, serializeSvg } from './plot-export';
 import { PlotSize } from './plot-fit';
 import { drawXy, drawXyCursor, type XyBand } from './xy-draw';
-import { layoutXy, nearestSample, type XyGeometry, type XySeries } from './xy-geometry';
+import { layoutXy, nearestSample, type XyGeometry, type XyRule, type XySeries } from './xy-geometry';
 
 let helpCounter = 0;
 
@@ -68,6 +68,12 @@ export class XyPlot {
   readonly series = input.required<readonly XySeries[]>();
   /** A span of the x axis to mark (the linear input range). */
   readonly band = input<XyBand>();
+  /** A logarithmic x axis (used only when every x is positive). */
+  readonly xLog = input(false);
+  /** Horizontal lines to draw (a check's limits), each in the panel of its unit. */
+  readonly rules = input<readonly XyRule[]>([]);
+  /** Title of the y axis of a one-panel plot, instead of the unit's (e.g. "a0 (dB)"). */
+  readonly yTitle = input<string>();
   /** Name of the swept quantity, e.g. `va`. */
   readonly xName = input('x');
   /** Unit of x: V or A. */
@@ -100,6 +106,9 @@ export class XyPlot {
     height: this.box.height(),
     x: this.x(),
     series: this.series(),
+    xLog: this.xLog(),
+    rules: this.rules(),
+    yTitle: this.yTitle(),
   }));
 
   readonly readout = computed(() => {
@@ -119,7 +128,7 @@ export class XyPlot {
       const svg = this.svgRef().nativeElement;
       this.droppedLabels = drawXy(svg, geo, this.x(), this.series(), this.band(), {
         x: `${this.xName()}${this.xUnit() ? ` (${this.xUnit()})` : ''}`, xUnit: this.xUnit(), caption: this.caption(),
-      });
+      }, this.rules());
       drawXyCursor(svg, geo, this.x(), this.series(), untracked(this.cursorIndex), this.xUnit());
     });
     afterRenderEffect(() => {
@@ -169,6 +178,7 @@ export class XyPlot {
     const rect = this.svgRef().nativeElement.getBoundingClientRect();
     const scale = rect.width > 0 ? geo.width / rect.width : 1;
     const px = Math.min(geo.innerWidth, Math.max(0, (event.clientX - rect.left) * scale - geo.left));
-    this.moveCursorTo(geo.x.invert(px));
+    // Nearest on the screen, which on a log axis is not nearest in value.
+    if (this.x().length > 0) this.cursorIndex.set(nearestSample(this.x().map((v) => geo.x(v)), px));
   }
 }

@@ -90,3 +90,15 @@ vg: vsrc(g, gnd) 0.9
 rd: res(vcc, d) 57k
 m1: nmos(d=d, g=g, s=gnd) w=10u l=1u
 `;
+
+/**
+ * The resistor-tail pair with its tail as a param, swept over four values (the first, 0 Ω, does
+ * not solve) and over three temperatures, with an ac sweep of 5 points a decade.
+ */
+export const SWEPT_PAIR = RESISTOR_TAIL_PAIR
+  .replace('title  Resistor-tail pair', 'title  Swept pair')
+  .replace('vcc: vsrc', 'param rt = 4.65k\nvcc: vsrc')
+  .replace('rt: res(tail, vee) 4.65k', 'rt: res(tail, vee) rt')
+  .replace('per decade 20', 'per decade 5')
+  .replace('measure a0', 'analyze vary rt over 0 1k 4.65k 20k\nanalyze temp over -40 27 125\nmeasure a0')
+  + 'check a0 >= 40\n';
