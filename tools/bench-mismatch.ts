@@ -12,7 +12,7 @@ import { parseNetlist } from '../solver';
 import type { MismatchRequest } from '../solver/circuit/analyses';
 import { mismatchSamples, summarizeMismatch, type MismatchSample } from '../solver/run/mismatch';
 
-const RUNS = 400;
+const RUNS = 1600;
 const LINE = `analyze mismatch runs ${RUNS} seed 7 beta 5% is 2% res 0.5%`;
 
 /** The demo without its ac sweep (ports at one frequency) and with the mismatch line. */
