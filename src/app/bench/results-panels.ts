@@ -13,6 +13,7 @@ import { MeasuresPanel } from './panels/measures-panel';
 import { MismatchPanel } from './panels/mismatch-panel';
 import { ModesPanel } from './panels/modes-panel';
 import { ResponsePanel } from './panels/response-panel';
+import { SensitivityTable } from './panels/sensitivity-table';
 import { SweepsPanel } from './panels/sweeps-panel';
 import { TransferPanel } from './panels/transfer-panel';
 import { ResultsSummary } from './results-summary';
@@ -23,7 +24,7 @@ let noteIds = 0;
 
 @Component({
   selector: 'nw-results-panels',
-  imports: [ResultsSummary, Cautions, MatTabsModule, BiasPanel, ResponsePanel, ModesPanel, ChecksPanel, MeasuresPanel, TransferPanel, SweepsPanel, MismatchPanel],
+  imports: [ResultsSummary, Cautions, MatTabsModule, BiasPanel, ResponsePanel, ModesPanel, ChecksPanel, MeasuresPanel, TransferPanel, SweepsPanel, MismatchPanel, SensitivityTable],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <nw-results-summary [result]="result()" [stale]="stale()" [errorCount]="errorCount()"
@@ -58,6 +59,10 @@ let noteIds = 0;
           <nw-checks-panel [result]="result()" [measureLines]="lines().measures" [stale]="stale()" (lineSelected)="lineSelected.emit($event)" />
           <h2 class="sub">Measures</h2>
           <nw-measures-panel [result]="result()" [measureLines]="lines().measures" (lineSelected)="lineSelected.emit($event)" />
+          @if (result()?.sensitivity) {
+            <h2 class="sub">Sensitivity</h2>
+            <nw-sensitivity-table [result]="result()" />
+          }
         </div></ng-template>
       </mat-tab>
     </mat-tab-group>
