@@ -22,7 +22,7 @@ function parsed(text: string): { circuit: Circuit; requests: ReturnType<typeof p
 
 describe('analyze mismatch', () => {
   it('spreads vos of a pair with only IS mismatched as √2·VT·σ (2000 runs, ±10 %)', () => {
-    // VOS = VT·ln(IS2/IS1) for a bipolar pair with equal loads: Gray, Hurst, Lewis & Meyer, 5th ed.,
+    // VOS = VT·ln(IS2/IS1) for a bipolar pair with equal loads: Gray et al., 5th ed.,
     // §3.5.6, offset voltage of the emitter-coupled pair (from memory). With independent relative
     // spreads σ on each IS, sd(VOS) ≈ VT·√2·σ.
     const r = solveNetlist(PAIR('runs 2000 seed 7 is 2%'));
