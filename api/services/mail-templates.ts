@@ -12,7 +12,7 @@ function html(paragraphs: string[], link: { href: string; label: string }, foote
   return `<!doctype html><html><body style="font-family: 'Source Sans 3', Arial, sans-serif; color: #1d2230; background: #f7f3ea; padding: 16px">
 <div style="max-width: 560px; background: #fffdf8; border: 1px solid #d8d0bf; border-radius: 8px; padding: 20px">
 ${paragraphs.map((p) => `<p style="margin: 0 0 12px">${p}</p>`).join('\n')}
-<p style="margin: 18px 0"><a href="${escapeHtml(link.href)}" style="background: #a8481f; color: #ffffff; padding: 8px 14px; border-radius: 6px; text-decoration: none">${escapeHtml(link.label)}</a></p>
+<p style="margin: 18px 0"><a href="${escapeHtml(link.href)}" style="background: #963f1a; color: #ffffff; padding: 8px 14px; border-radius: 6px; text-decoration: none">${escapeHtml(link.label)}</a></p>
 <p style="margin: 0 0 12px; font-size: 13px; color: #444a58">Or paste this address into your browser: ${escapeHtml(link.href)}</p>
 <p style="margin: 16px 0 0; font-size: 13px; color: #444a58">${escapeHtml(footer)}</p>
 </div></body></html>`;

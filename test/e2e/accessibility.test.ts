@@ -11,7 +11,7 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { ROOT } from '../../tools/postgres';
 import { launchBrowser, RESULTS_DIR, type Browser } from '../support/browser';
-import { editOnLine, replaceNetlist, waitForPainted } from './bench-support';
+import { editOnLine, focusEditor, replaceNetlist, waitForPainted } from './bench-support';
 import { shotBoth, signInThroughPage } from './team-support';
 
 const AXE_SOURCE = readFileSync(join(ROOT, 'node_modules/axe-core/axe.min.js'), 'utf8');
@@ -151,7 +151,7 @@ describe('accessibility (axe-core)', { timeout: 90_000 }, () => {
       problems.push(...serious(await audit(page, `bench after New: ${tab}`)));
       if (tab === 'Bias') await shotBoth(page, 'view-bench-new-bias');
     }
-    await page.locator('.cm-content').click({ position: { x: 8, y: 8 } });
+    await focusEditor(page);
     await page.keyboard.press('Control+End');
     await page.keyboard.insertText('analyze noise\n');
     await page.locator('nw-problems-list li').first().waitFor();

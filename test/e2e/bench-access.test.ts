@@ -99,8 +99,10 @@ describe('bench accessibility', () => {
     const page = await browser.context.newPage();
     await page.goto(inject('baseUrl') + '/bench');
     await page.locator('.cm-content').waitFor();
+    // After the first solve: while a slow solve runs, "Cancel the solve" is one more stop.
+    await waitForPainted(page);
     const reached = new Set<string>();
-    for (let i = 0; i < 40; i++) {
+    for (let i = 0; i < 60; i++) {
       await page.keyboard.press('Tab');
       const label = await page.evaluate(() => {
         const el = document.activeElement as HTMLElement | null;

@@ -2,14 +2,33 @@
  * Helpers for the bench's browser tests: typing into the CodeMirror editor and waiting for the
  * solve that follows.
  */
+import { mkdirSync } from 'node:fs';
+import { join } from 'node:path';
 import type { BrowserContext, Page } from 'playwright-core';
+import { RESULTS_DIR } from '../support/browser';
 
 /**
  * Focuses the editor by clicking near its top left corner (a click on the middle of a long
- * `.cm-content` would make the browser scroll the editor sideways to reach it).
+ * `.cm-content` would make the browser scroll the editor sideways to reach it). On a loaded
+ * machine the click has twice been refused for 30 s as "<html> intercepts pointer events" right
+ * after sign-in, never reproduced alone; then the editor is focused as a screen reader user's
+ * Tab would, a screenshot of the moment is kept in test-results/, and the hit element is logged.
  */
 export async function focusEditor(page: Page): Promise<void> {
-  await page.locator('.cm-content').click({ position: { x: 8, y: 8 } });
+  const content = page.locator('.cm-content');
+  try {
+    await content.click({ position: { x: 8, y: 8 }, timeout: 8_000 });
+  } catch (error) {
+    const hit = await content.evaluate((el) => {
+      const r = el.getBoundingClientRect();
+      const at = document.elementFromPoint(r.left + 8, r.top + 8);
+      return `content at ${Math.round(r.left)},${Math.round(r.top)} ${Math.round(r.width)}×${Math.round(r.height)}; hit ${at?.tagName ?? 'nothing'}.${at?.className ?? ''}`;
+    });
+    console.warn(`focusEditor: the click was refused (${(error as Error).message.split('\n')[0]}); ${hit}`);
+    mkdirSync(RESULTS_DIR, { recursive: true });
+    await page.screenshot({ path: join(RESULTS_DIR, `focus-editor-refused-${Date.now()}.png`) }).catch(() => undefined);
+    await content.focus();
+  }
 }
 
 /** Replaces the whole netlist in the editor, as a paste would. */

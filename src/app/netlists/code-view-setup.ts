@@ -12,7 +12,7 @@ const diffTheme = EditorView.theme({
   '&': { height: 'auto', fontSize: '13px' },
   '&.cm-merge-a .cm-changedLine': { backgroundColor: 'rgba(168, 72, 31, 0.09)' },
   '&.cm-merge-b .cm-changedLine': { backgroundColor: 'rgba(31, 95, 122, 0.09)' },
-  '&.cm-merge-a .cm-changedText': { background: 'linear-gradient(#a8481f99, #a8481f99) bottom/100% 2px no-repeat' },
+  '&.cm-merge-a .cm-changedText': { background: 'linear-gradient(#963f1a99, #963f1a99) bottom/100% 2px no-repeat' },
   '&.cm-merge-b .cm-changedText': { background: 'linear-gradient(#1f5f7aaa, #1f5f7aaa) bottom/100% 2px no-repeat' },
   '&.cm-merge-a .cm-changedLineGutter': { background: 'var(--mat-sys-primary)' },
   '&.cm-merge-b .cm-changedLineGutter': { background: 'var(--mat-sys-tertiary)' },

@@ -36,9 +36,9 @@ const mergeLook = EditorView.theme({
   '&.cm-merge-a .cm-changedLine': { backgroundColor: 'rgba(31, 95, 122, 0.08)' },
   '&.cm-merge-b .cm-changedLine': { backgroundColor: 'rgba(168, 72, 31, 0.08)' },
   '&.cm-merge-a .cm-changedText': { background: 'linear-gradient(#1f5f7a99, #1f5f7a99) bottom/100% 2px no-repeat' },
-  '&.cm-merge-b .cm-changedText': { background: 'linear-gradient(#a8481f99, #a8481f99) bottom/100% 2px no-repeat' },
+  '&.cm-merge-b .cm-changedText': { background: 'linear-gradient(#963f1a99, #963f1a99) bottom/100% 2px no-repeat' },
   '&.cm-merge-a .cm-changedLineGutter': { background: '#1f5f7a' },
-  '&.cm-merge-b .cm-changedLineGutter': { background: '#a8481f' },
+  '&.cm-merge-b .cm-changedLineGutter': { background: '#963f1a' },
   '.cm-collapsedLines': { color: 'var(--mat-sys-on-surface-variant)', background: 'var(--mat-sys-surface-container)' },
   // The default marks are a glyph the editor's fonts may lack; plain dots read the same.
   '.cm-collapsedLines:before': { content: '"··· "' },
