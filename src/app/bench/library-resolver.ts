@@ -1,7 +1,9 @@
 /**
- * The worker's `use` resolver. `solveNetlist` resolves synchronously, so the blocks a netlist
- * names are fetched first (and kept), then the solve runs. Where a `use path@version` comes from,
- * in order:
+ * The worker's `use` resolver. The solver resolves `use` lines synchronously, so the worker solves
+ * with what it has and notes what the solve asked for; only when that includes a block not fetched
+ * yet (or one whose state is due to be asked again) are those fetched and the text solved again —
+ * nested uses surface in the next round. A keystroke in a netlist whose blocks are known costs one
+ * solve and no fetch. Where a `use path@version` comes from, in order:
  *  1. the sources pinned in the share link being read (a reader has no session);
  *  2. the signed-in workspace's library, through the API (drafts too, for their author and
  *     reviewers), with the version's state and the newest vetted version;
@@ -11,7 +13,7 @@
  * A version's source never changes once submitted, but its state does (vetted → retired) and so
  * does the newest vetted version: answers are re-asked after STATE_TTL_MS.
  */
-import { parseNetlist, type OutlineUse, type UseLookup } from '../../../solver';
+import { parseNetlist, type UseLookup } from '../../../solver';
 import type { BlockCache } from './block-cache';
 import type { BlockOrigin, LibraryContext, UsedBlockState } from './solver-protocol';
 
@@ -19,8 +21,12 @@ interface ManifestEntry { path: string; version: number; file: string }
 
 /** How long a block's state from the server is trusted before it is asked again, ms. */
 export const STATE_TTL_MS = 30_000;
+/** How soon a block the library could not be reached for is asked again, ms. */
+const UNREACHABLE_RETRY_MS = 5_000;
 /** At most this many blocks are fetched for one text (uses of uses included). */
 const MAX_BLOCKS = 64;
+/** At most this many fetch-and-solve-again rounds for one text (the depth of nested uses). */
+const MAX_ROUNDS = 8;
 
 /** What the resolver knows of one `path@version`. */
 export interface ResolvedBlock {
@@ -35,10 +41,15 @@ export interface ResolvedBlock {
 /** Why a block could not be resolved, for the solver's message. */
 type Miss = { kind: 'no-block' } | { kind: 'no-version'; versions: number[] } | { kind: 'unreachable' };
 
+/** The `(path, version) → lookup` callback the solver calls for each `use` line it meets. */
+export type ResolveUse = (path: string, version: number) => UseLookup;
+
 export class LibraryResolver {
   private manifest: ManifestEntry[] | undefined;
   private readonly known = new Map<string, ResolvedBlock>();
   private readonly misses = new Map<string, Miss>();
+  /** When a block was last looked for in vain (not asked again before STATE_TTL_MS). */
+  private readonly missedAt = new Map<string, number>();
   private context: LibraryContext = {};
 
   constructor(
@@ -47,37 +58,69 @@ export class LibraryResolver {
     private readonly cache: BlockCache | undefined,
   ) {}
 
-  /** What was resolved for `path@version` in the last preload, if anything. */
+  /** What was resolved for `path@version`, if anything. */
   lookup(path: string, version: number): ResolvedBlock | undefined {
     return this.known.get(`${path}@${version}`);
   }
 
   /**
-   * Fetches what `text` uses (and what those files use) for `context`. Never throws: what could
-   * not be found is reported by `resolve` when the solver asks.
+   * Runs `solve` (a solve or a parse of one text) with the blocks of `context`, fetching what it
+   * asked for and running it again until nothing it asks for is missing or due (see the header).
+   * Undefined when `superseded` says, after a fetch, that the result is no longer wanted. Never
+   * throws for a block: what could not be found is reported by `resolve` when the solver asks.
    */
-  async preload(text: string, context: LibraryContext): Promise<void> {
+  async solveWith<T>(context: LibraryContext, solve: (resolve: ResolveUse) => T, superseded?: () => boolean): Promise<T | undefined> {
     if (!sameContext(context, this.context)) {
       // Another workspace (or another share): nothing known so far may be reused.
       this.known.clear();
       this.misses.clear();
+      this.missedAt.clear();
       this.context = context;
     }
-    const wanted = usesOf(text);
-    const seen = new Set<string>();
-    for (let i = 0; i < wanted.length && seen.size < MAX_BLOCKS; i++) {
-      const { path, version } = wanted[i];
-      const key = `${path}@${version}`;
-      if (seen.has(key)) continue;
-      seen.add(key);
-      const had = this.known.get(key);
-      const block = had && (had.origin === 'share' || Date.now() - had.fetchedAt < STATE_TTL_MS) ? had : await this.fetchBlock(path, version, had);
-      if (block) {
-        this.known.set(key, block);
-        this.misses.delete(key);
-        wanted.push(...usesOf(block.source));
+    for (let round = 0; ; round++) {
+      const asked = new Map<string, { path: string; version: number }>();
+      const out = solve((path, version) => {
+        asked.set(`${path}@${version}`, { path, version });
+        return this.resolve(path, version);
+      });
+      const due = [...asked.entries()].filter(([key]) => this.isDue(key)).slice(0, MAX_BLOCKS);
+      if (due.length === 0 || round >= MAX_ROUNDS) return out;
+      let changed = false;
+      for (const [key, { path, version }] of due) {
+        const had = this.known.get(key);
+        const missedBefore = JSON.stringify(this.misses.get(key));
+        const block = await this.fetchBlock(path, version, had);
+        if (block) {
+          // Marked as asked now, whatever answered (a kept copy too): not asked again before STATE_TTL_MS.
+          this.known.set(key, { ...block, fetchedAt: Date.now() });
+          this.misses.delete(key);
+          changed ||= !had || had.source !== block.source || had.state !== block.state || had.newestVetted !== block.newestVetted || had.origin !== block.origin;
+        } else {
+          this.missedAt.set(key, Date.now());
+          // A new reason (no such block, no such version, unreachable) changes the solver's message.
+          changed ||= !!had || missedBefore !== JSON.stringify(this.misses.get(key));
+          this.known.delete(key);
+        }
       }
+      if (superseded?.()) return undefined;
+      // A refresh that changed nothing (the usual case every STATE_TTL_MS) needs no second solve.
+      if (!changed) return out;
     }
+  }
+
+  /** Fetches what `text` uses (nested uses included) for `context`, by parsing it. */
+  async preload(text: string, context: LibraryContext): Promise<void> {
+    await this.solveWith(context, (resolve) => parseNetlist(text, { resolveUse: resolve }));
+  }
+
+  /** A block to fetch: never fetched, or its answer (or its absence) older than STATE_TTL_MS; a share's pins never are. */
+  private isDue(key: string): boolean {
+    const block = this.known.get(key);
+    if (block) return block.origin !== 'share' && Date.now() - block.fetchedAt >= STATE_TTL_MS;
+    const missed = this.missedAt.get(key);
+    // A server that could not be reached is asked again soon: it may be back.
+    const wait = this.misses.get(key)?.kind === 'unreachable' ? UNREACHABLE_RETRY_MS : STATE_TTL_MS;
+    return missed === undefined || Date.now() - missed >= wait;
   }
 
   /** The synchronous resolver handed to the solver. */
@@ -165,14 +208,6 @@ export class LibraryResolver {
       return 'unreachable';
     }
   }
-}
-
-/**
- * The `use` lines of a text (a netlist or a block file), in order, as the solver reads them. The
- * parse runs without a resolver: it is how the blocks to fetch are known before the solve.
- */
-export function usesOf(text: string): OutlineUse[] {
-  return parseNetlist(text).outline.uses;
 }
 
 function sameContext(a: LibraryContext, b: LibraryContext): boolean {

@@ -43,10 +43,10 @@ async function drain(): Promise<void> {
     const request = waiting;
     waiting = undefined;
     const started = performance.now();
-    await library.preload(request.text, request.library ?? {});
-    if (waiting) continue; // superseded while its library blocks were fetched
+    const context = request.library ?? {};
     // `analyze mismatch` is left out and reported: the Mismatch tab runs it over its own workers.
-    const reply = solveReply(request.id, request.text, { resolveUse: library.resolve, describeUse: usedBlock, library: request.library ?? {} });
+    const reply = await library.solveWith(context, (resolveUse) => solveReply(request.id, request.text, { resolveUse, describeUse: usedBlock, library: context }), () => !!waiting);
+    if (!reply) continue; // superseded while its library blocks were fetched
     // The bench's guess of the next solve's time counts the library fetches too.
     scope.postMessage({ ...reply, solveMs: performance.now() - started });
     await new Promise((resolve) => setTimeout(resolve, 0)); // let requests sent during the solve arrive
