@@ -3,8 +3,8 @@
  * back-substitution per excitation, all in storage allocated once per system.
  */
 import { GROUND } from '../circuit/types';
-import { complexLuFactor, complexLuSolve } from '../numeric/complex-lu';
-import type { AcSolution, AcSolver, Excitation, LinearSystem, Phasor } from './engine-api';
+import { complexLuFactor, complexLuSolve, complexLuSolveTransposed } from '../numeric/complex-lu';
+import type { AcSolution, AcSolver, AdjointSolution, Excitation, LinearSystem, Phasor } from './engine-api';
 
 export { logSweep, unwrapPhaseDeg } from './frequency';
 
@@ -22,13 +22,37 @@ export function createAcSolver(system: LinearSystem): AcSolver {
   const cAt = Int32Array.from(cIndex);
   const cVal = Float64Array.from(cIndex, (i) => system.C[i]);
 
+  /** The frequency whose factors `re`/`im` hold (NaN: none yet). */
+  let factoredAt = NaN;
+  let singular = false;
+  const factor = (freqHz: number) => {
+    if (freqHz === factoredAt) return;
+    const omega = Number.isFinite(freqHz) ? 2 * Math.PI * freqHz : 0;
+    re.set(system.G);
+    im.fill(0);
+    for (let k = 0; k < cAt.length; k++) im[cAt[k]] = omega * cVal[k];
+    singular = complexLuFactor(re, im, n, pivots) >= 0;
+    factoredAt = freqHz;
+  };
+
   return {
+    solveTransposed(freqHz: number, rhsRe: Float64Array, rhsIm: Float64Array): AdjointSolution {
+      factor(freqHz);
+      const yr = Float64Array.from(rhsRe);
+      const yi = Float64Array.from(rhsIm);
+      let bad = singular;
+      if (!bad) {
+        complexLuSolveTransposed(re, im, n, pivots, yr, yi);
+        for (let i = 0; i < n && !bad; i++) if (!Number.isFinite(yr[i]) || !Number.isFinite(yi[i])) bad = true;
+      }
+      if (bad) {
+        yr.fill(0);
+        yi.fill(0);
+      }
+      return { re: yr, im: yi, singular: bad };
+    },
     solve(freqHz: number, excitations: Excitation[]): AcSolution[] {
-      const omega = Number.isFinite(freqHz) ? 2 * Math.PI * freqHz : 0;
-      re.set(system.G);
-      im.fill(0);
-      for (let k = 0; k < cAt.length; k++) im[cAt[k]] = omega * cVal[k];
-      const singular = complexLuFactor(re, im, n, pivots) >= 0;
+      factor(freqHz);
       const out: AcSolution[] = [];
       for (const ex of excitations) {
         const xr = new Float64Array(n);

@@ -83,6 +83,22 @@ export interface AcSolution {
  */
 export interface AcSolver {
   solve(freqHz: number, excitations: Excitation[]): AcSolution[];
+  /**
+   * Solves the transposed (adjoint) system (G + j·2πf·C)ᵀ·y = rhs at one frequency — the plain
+   * transpose, not the conjugate — reusing the factors when `freqHz` is the frequency last
+   * factored (by `solve` or by this). `rhsRe`/`rhsIm` (length `size`, indexed like the unknowns)
+   * are read, not modified. With rhs = e_k, y[j] is the transfer from a unit current injected at
+   * row j to unknown k: every noise contributor of a node from one solve.
+   */
+  solveTransposed(freqHz: number, rhsRe: Float64Array, rhsIm: Float64Array): AdjointSolution;
+}
+
+/** Solution of one transposed solve: split complex vectors over the unknowns. */
+export interface AdjointSolution {
+  re: Float64Array;
+  im: Float64Array;
+  /** The matrix could not be factored at this frequency (the vectors are then 0). */
+  singular: boolean;
 }
 
 export interface DcSweepResult {

@@ -124,3 +124,65 @@ export function complexLuSolve(
     bIm[i] = (si * dr - sr * di) / d;
   }
 }
+
+/**
+ * Solves Aᵀ·y = b (the plain transpose, not the conjugate) in place in (bRe, bIm) with the output
+ * of {@link complexLuFactor} for A: with P·A = L·U, Aᵀ = Uᵀ·Lᵀ·P, so forward through Uᵀ, back
+ * through Lᵀ (unit diagonal), then the row swaps undone in reverse order. The adjoint system of
+ * noise and sensitivity analysis, from the factors the forward solve already paid for.
+ */
+export function complexLuSolveTransposed(
+  re: Float64Array,
+  im: Float64Array,
+  n: number,
+  pivots: Int32Array,
+  bRe: Float64Array,
+  bIm: Float64Array,
+): void {
+  // Uᵀ·z = b: column i of U above the diagonal is row i of Uᵀ left of it.
+  for (let i = 0; i < n; i++) {
+    let sr = bRe[i];
+    let si = bIm[i];
+    for (let j = 0; j < i; j++) {
+      const ur = re[j * n + i];
+      const ui = im[j * n + i];
+      const xr = bRe[j];
+      const xi = bIm[j];
+      sr -= ur * xr - ui * xi;
+      si -= ur * xi + ui * xr;
+    }
+    const s = Math.max(Math.abs(re[i * n + i]), Math.abs(im[i * n + i]));
+    const dr = re[i * n + i] / s;
+    const di = im[i * n + i] / s;
+    const d = (dr * dr + di * di) * s;
+    bRe[i] = (sr * dr + si * di) / d;
+    bIm[i] = (si * dr - sr * di) / d;
+  }
+  // Lᵀ·w = z, unit diagonal.
+  for (let i = n - 1; i >= 0; i--) {
+    let sr = bRe[i];
+    let si = bIm[i];
+    for (let j = i + 1; j < n; j++) {
+      const lr = re[j * n + i];
+      const li = im[j * n + i];
+      const xr = bRe[j];
+      const xi = bIm[j];
+      sr -= lr * xr - li * xi;
+      si -= lr * xi + li * xr;
+    }
+    bRe[i] = sr;
+    bIm[i] = si;
+  }
+  // y = Pᵀ·w: the swaps of the factorisation in reverse order.
+  for (let k = n - 1; k >= 0; k--) {
+    const p = pivots[k];
+    if (p !== k) {
+      let t = bRe[k];
+      bRe[k] = bRe[p];
+      bRe[p] = t;
+      t = bIm[k];
+      bIm[k] = bIm[p];
+      bIm[p] = t;
+    }
+  }
+}
