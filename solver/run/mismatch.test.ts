@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { parseNetlist, solveNetlist } from '../index';
+import { parseNetlist, solveNetlist, solveWithOutline } from '../index';
 import type { MismatchRequest } from '../circuit/analyses';
 import type { Circuit } from '../circuit/types';
 import { isOpFailure, solveOperatingPoint } from '../analysis/operating-point';
@@ -51,6 +51,34 @@ describe('analyze mismatch', () => {
     }
   });
 
+  it('keeps vos to millivolts on a high-gain mirror-loaded pair whose output rails in some runs', () => {
+    // A single-ended gain near 1300: IS spreads of 2 % already push the output towards a rail in
+    // some runs, where a plain secant from the linear guess leapt to crossings volts away
+    // (−14 V). The offset of a bipolar pair is VT·ln(IS ratio) plus the load mirror's share
+    // (Gray et al., 5th ed., §3.5.6, from memory): with 2 % on four devices, a few millivolts.
+    const text = `title  Mirror-loaded pair
+model  qn: npn(is=1e-16, beta=120, va=80)
+model  qp: pnp(is=1e-16, beta=80, va=60)
+vcc:   vsrc(vcc, gnd) 10 V
+va:    vsrc(ina, gnd) 2.5 V
+vb:    vsrc(inb, gnd) 2.5 V
+q1:    npn(c=mir, b=ina, e=tail) qn
+q2:    npn(c=out, b=inb, e=tail) qn
+q3:    pnp(c=mir, b=mir, e=vcc) qp
+q4:    pnp(c=out, b=mir, e=vcc) qp
+it:    isrc(tail, gnd) 1m
+ports  in=(va, vb) out=out
+analyze mismatch runs 200 seed 1 is 2%
+`;
+    const r = solveNetlist(text);
+    expect(r.errors).toEqual([]);
+    const vos = r.mismatch!.samples.vos;
+    expect(vos.length).toBeGreaterThan(190);
+    for (const v of vos) expect(Math.abs(v)).toBeLessThan(10e-3);
+    // Four devices' independent 2 % IS spreads: sd ≈ VT·√4·0.02 ≈ 1.04 mV (each IS ratio adds VT·σ in quadrature).
+    expectNearlyEqual(r.mismatch!.stats.vos.sd, VT_27C * 2 * 0.02, 0.2, 0, 'sd of vos, four devices');
+  });
+
   it('gives the same statistics whether the runs are solved in one piece or in three, in any order', () => {
     const { circuit, requests, request } = parsed(PAIR('runs 60 seed 3 beta 5% is 2% res 0.5%'));
     const whole = summarizeMismatch(request, mismatchSamples(circuit, requests, request, 0, 60));
@@ -74,5 +102,15 @@ describe('analyze mismatch', () => {
     expect(bare.errors[0]).toMatchObject({ line: 13 });
     expect(bare.errors[0].message).toContain('percentage');
     expect(solveNetlist(PAIR('runs 99999 is 1%')).errors.find((e) => e.code === 'sweep-too-large')?.line).toBe(13);
+  });
+
+  it('says what is wrong with the line when the runs are left to the caller (the bench), and hands back only a line that will run', () => {
+    const noSpreads = solveWithOutline(PAIR('runs 10 seed 1'), { skip: ['mismatch'] });
+    expect(noSpreads.result.mismatch).toBeUndefined();
+    expect(noSpreads.result.warnings.find((w) => w.line === 13)?.message).toContain('no spreads');
+    expect(noSpreads.skipped).toHaveLength(1);
+    const tooMuch = solveWithOutline(PAIR('runs 99999 is 1%'), { skip: ['mismatch'] });
+    expect(tooMuch.result.errors.find((e) => e.code === 'sweep-too-large')?.line).toBe(13);
+    expect(tooMuch.skipped).toEqual([]);
   });
 });

@@ -69,10 +69,13 @@ function scalar(f: ComplexFigure): number {
   return f.im === 0 ? f.re : f.mag;
 }
 
-/** What each run solves: no curve analyses unless a measure reads a curve. */
+/** What each run solves: no curve or noise analyses unless a measure reads a curve or a noise figure. */
 export function perRunRequests(requests: Requests): Requests {
-  const readsCurves = [...requests.measures.map((m) => m.expr), ...requests.checks.flatMap((c) => [c.lhs, c.rhs])].some((e) => /\b(ac|at|corner|unity|margin)\s*\(/.test(e));
-  return { ...requests, analyses: readsCurves ? requests.analyses.filter((a) => a.kind === 'ac') : [] };
+  const expressions = [...requests.measures.map((m) => m.expr), ...requests.checks.flatMap((c) => [c.lhs, c.rhs])];
+  const readsCurves = expressions.some((e) => /\b(ac|at|corner|unity|margin)\s*\(/.test(e));
+  // The noise sweep likewise, only for a measure or check that reads noise_out, noise_in_rms, ….
+  const readsNoise = expressions.some((e) => /\bnoise_(out|in)(_rms)?\s*\(/.test(e));
+  return { ...requests, analyses: requests.analyses.filter((a) => (readsCurves && a.kind === 'ac') || (readsNoise && a.kind === 'noise')) };
 }
 
 /** Solves runs `from` (inclusive) to `to` (exclusive). Never throws. */
@@ -127,9 +130,19 @@ function nominalTarget(circuit: Circuit, ports: PortsRequest): number | undefine
 }
 
 /**
+ * The largest input offset searched for, volts. A pair's offset is millivolts; past a volt the
+ * stage is far outside its linear range and "the input that nulls the output" says nothing.
+ */
+export const VOS_SEARCH_LIMIT = 1;
+
+/**
  * The DC differential input (split ±½ over the two input sources) that brings the output to
- * `target`, by the secant method on re-solved operating points (each warm-started from the last);
- * undefined when the inputs are not voltage sources or the search does not settle.
+ * `target`, on re-solved operating points (each warm-started from the last): from the linear
+ * guess −error/adm, the step is doubled until the error changes sign (within ±VOS_SEARCH_LIMIT),
+ * then the bracket is closed by regula falsi with the Illinois modification (Dowell & Jarratt,
+ * BIT 11, 1971), which keeps the root bracketed where a plain secant would leap off a saturated,
+ * flat stretch of the transfer curve to a far, meaningless crossing. Undefined when the inputs are
+ * not voltage sources, no sign change lies within the limit, or an operating point fails.
  */
 export function inputOffset(circuit: Circuit, ports: PortsRequest, target: number, admDc: number): number | undefined {
   const inP = circuit.parts.find((p) => p.name === ports.inP);
@@ -145,17 +158,59 @@ export function inputOffset(circuit: Circuit, ports: PortsRequest, target: numbe
     const out = (nodes[ports.outP] ?? 0) - (ports.outN ? nodes[ports.outN] ?? 0 : 0);
     return out - target;
   };
-  let x0 = 0;
-  let f0 = error(x0);
+  const f0 = error(0);
   if (f0 === undefined) return undefined;
-  let x1 = admDc !== 0 && Number.isFinite(admDc) ? -f0 / admDc : 1e-3;
-  for (let k = 0; k < 30; k++) {
-    const f1 = error(x1);
-    if (f1 === undefined) return undefined;
-    if (Math.abs(x1 - x0) <= 1e-13 + 1e-10 * Math.abs(x1) || f1 === 0) return x1;
-    if (f1 === f0) return Math.abs(f1) < 1e-9 ? x1 : undefined;
-    const x2: number = x1 - (f1 * (x1 - x0)) / (f1 - f0);
-    [x0, f0, x1] = [x1, f1, x2];
+  if (f0 === 0) return 0;
+  // Bracket: from the linear guess outwards, doubling, in the guess's direction first.
+  const guess = admDc !== 0 && Number.isFinite(admDc) ? -f0 / admDc : 1e-3;
+  let step = Math.min(Math.max(Math.abs(guess), 1e-9), VOS_SEARCH_LIMIT) * (guess < 0 ? -1 : 1);
+  let a = 0;
+  let fa = f0;
+  let b: number | undefined;
+  let fb = 0;
+  for (let tries = 0; tries < 80 && b === undefined; tries++) {
+    const f = error(step);
+    if (f === undefined) return undefined;
+    if (f === 0) return step;
+    if (Math.sign(f) !== Math.sign(f0)) {
+      b = step;
+      fb = f;
+    } else if (Math.abs(step) >= VOS_SEARCH_LIMIT) {
+      // Nothing this way: the other direction once, from the guess's size.
+      if (Math.sign(step) === Math.sign(guess || 1)) step = -Math.min(Math.max(Math.abs(guess), 1e-9), VOS_SEARCH_LIMIT) * Math.sign(step);
+      else return undefined;
+    } else {
+      a = step;
+      fa = f;
+      step = Math.sign(step) * Math.min(2 * Math.abs(step), VOS_SEARCH_LIMIT);
+    }
+  }
+  if (b === undefined) return undefined;
+  return illinois(error, a, fa, b, fb, target);
+}
+
+/** Closes the bracket [a, b] (errors fa, fb of opposite signs) on a root of `error`. */
+function illinois(error: (x: number) => number | undefined, a: number, fa: number, b: number, fb: number, target: number): number | undefined {
+  // Illinois: the end that stays twice in a row has its error halved, so both ends move.
+  let side = 0;
+  for (let k = 0; k < 100; k++) {
+    const x: number = (a * fb - b * fa) / (fb - fa);
+    if (Math.abs(b - a) <= 1e-13 + 1e-10 * Math.abs(x)) return x;
+    const f = error(x);
+    if (f === undefined) return undefined;
+    if (f === 0) return x;
+    if (Math.sign(f) === Math.sign(fb)) {
+      b = x;
+      fb = f;
+      if (side === -1) fa /= 2;
+      side = -1;
+    } else {
+      a = x;
+      fa = f;
+      if (side === 1) fb /= 2;
+      side = 1;
+    }
+    if (Math.abs(f) <= 1e-12 * Math.max(1, Math.abs(target))) return x;
   }
   return undefined;
 }
@@ -183,22 +238,36 @@ export function summarizeMismatch(request: MismatchRequest, samples: readonly Mi
   };
 }
 
+/**
+ * What can be said of an `analyze mismatch` line before any run: too much work (an error: it will
+ * not run) or no spreads (a warning). The bench's live solve leaves the runs to the Mismatch tab
+ * but still shows these on the line as it is typed.
+ */
+export function mismatchPrecheck(circuit: Circuit, request: MismatchRequest): Diagnostic[] {
+  if (request.runs * Math.max(1, circuit.parts.length) > MAX_MISMATCH_WORK) {
+    return [diagnostic('error', 'sweep-too-large', request.loc,
+      `analyze mismatch would solve ${request.runs} runs of ${circuit.parts.length} parts, more than ${MAX_MISMATCH_WORK.toLocaleString('en-US')} in all.`, 'use fewer runs')];
+  }
+  if (Object.keys(request.sigmas).length === 0) {
+    return [diagnostic('warning', 'sweep-value-failed', request.loc, 'analyze mismatch has no spreads: every run is the circuit as written.', 'add spreads, e.g. `beta 5% is 2% res 0.5%`')];
+  }
+  return [];
+}
+
 /** The whole analysis in one thread (the CLI, tests); the bench splits `mismatchSamples` over workers. */
 export function runMismatch(circuit: Circuit, requests: Requests): { member?: MismatchResult; diagnostics: Diagnostic[] } {
   const request = requests.analyses.find((a): a is MismatchRequest => a.kind === 'mismatch');
   if (!request) return { diagnostics: [] };
-  const diagnostics: Diagnostic[] = [];
-  if (request.runs * Math.max(1, circuit.parts.length) > MAX_MISMATCH_WORK) {
-    diagnostics.push(diagnostic('error', 'sweep-too-large', request.loc,
-      `analyze mismatch would solve ${request.runs} runs of ${circuit.parts.length} parts, more than ${MAX_MISMATCH_WORK.toLocaleString('en-US')} in all.`, 'use fewer runs'));
-    return { diagnostics };
-  }
-  if (Object.keys(request.sigmas).length === 0) {
-    diagnostics.push(diagnostic('warning', 'sweep-value-failed', request.loc, 'analyze mismatch has no spreads: every run is the circuit as written.', 'add spreads, e.g. `beta 5% is 2% res 0.5%`'));
-  }
+  const diagnostics = mismatchPrecheck(circuit, request);
+  if (diagnostics.some((d) => d.severity === 'error')) return { diagnostics };
   const member = summarizeMismatch(request, mismatchSamples(circuit, requests, request, 0, request.runs));
   if (member.failed_runs > 0) {
     diagnostics.push(diagnostic('warning', 'sweep-value-failed', request.loc, `analyze mismatch: ${member.failed_runs} of ${request.runs} runs did not solve; the statistics are over the other runs.`));
+  }
+  const withoutVos = requests.ports && member.samples.vos ? (member.runs - member.failed_runs) - member.samples.vos.length : 0;
+  if (withoutVos > 0) {
+    diagnostics.push(diagnostic('warning', 'sweep-value-failed', request.loc,
+      `analyze mismatch: in ${withoutVos} of ${member.runs - member.failed_runs} runs no input within ±${VOS_SEARCH_LIMIT} V brings the output back, so vos is over the other runs.`, 'the output may be pinned at a rail in those runs: look at the spread of the output voltage'));
   }
   return { member, diagnostics };
 }

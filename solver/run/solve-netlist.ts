@@ -14,7 +14,7 @@ import { parseNetlist } from '../elaborate/parse-netlist';
 import type { ParseOptions, ParseResult } from '../parse/parse-netlist';
 import { unavailableAnalyses } from './analyses';
 import { solveCircuit } from './solve-circuit';
-import { runMismatch } from './mismatch';
+import { mismatchPrecheck, runMismatch } from './mismatch';
 import { runSensitivity } from './sensitivity';
 import { isSweep, runSweeps } from './sweeps';
 
@@ -54,7 +54,10 @@ export function solveWithOutline(text: string, options: SolveOptions = {}): Outl
   try {
     parsed = parseNetlist(typeof text === 'string' ? text : '', { resolveUse: options.resolveUse });
     result = solveParsed(parsed, options.skip ?? []);
-    if (result.op) skipped.push(...parsed.requests.analyses.filter((a) => a.kind === 'mismatch' && options.skip?.includes(a.kind)));
+    if (result.op && parsed.circuit) {
+      const circuit = parsed.circuit;
+      skipped.push(...parsed.requests.analyses.filter((a) => a.kind === 'mismatch' && options.skip?.includes(a.kind) && !mismatchPrecheck(circuit, a).some((d) => d.severity === 'error')));
+    }
   } catch (err) {
     const message = err instanceof Error ? err.message : String(err);
     result = emptyResult('', 27);
@@ -91,6 +94,9 @@ function solveParsed(parsed: ParseResult, skip: ReadonlyArray<'mismatch'>): Solv
         const mismatch = runMismatch(circuit, parsed.requests);
         if (mismatch.member) result.mismatch = mismatch.member;
         diagnostics.push(...mismatch.diagnostics);
+      } else {
+        // The runs are left to the caller, but what is wrong with the line is said now.
+        for (const request of parsed.requests.analyses) if (request.kind === 'mismatch') diagnostics.push(...mismatchPrecheck(circuit, request));
       }
       const sensitivity = runSensitivity(circuit, parsed.requests);
       if (sensitivity.member) result.sensitivity = sensitivity.member;

@@ -33,4 +33,20 @@ describe('ResultsSummary', () => {
     expect(cancelled.text()).toContain('Solve cancelled');
     expect(cancelled.text()).not.toContain('last result that solved');
   });
+
+  it('says whether the checks hold over the sweeps, naming the values where they fail', async () => {
+    const swept = solveNetlist(RESISTOR_TAIL_PAIR + 'analyze temp over -40 27 85\n');
+    const holds = await render({ result: swept });
+    expect(holds.text()).toContain('all hold at the 3 temperatures');
+    expect(holds.el.querySelector('.sweep.pass')).not.toBeNull();
+    // A check that only the cold end breaks: vbe grows as the temperature falls.
+    const vbe = (swept.op!.devices['q1'] as { vbe: number }).vbe;
+    const cold = solveNetlist(RESISTOR_TAIL_PAIR + `analyze temp over -40 27 85\ncheck vbe(q1) < ${(vbe + 0.02).toFixed(3)}\n`);
+    const fails = await render({ result: cold });
+    expect(fails.text()).toContain('fails at -40 °C');
+    expect(fails.el.querySelector('.sweep.fail')).not.toBeNull();
+    expect(fails.el.querySelector('.verdict.pass')).not.toBeNull();
+    const old = await render({ result: cold, stale: true, errorCount: 1 });
+    expect(old.el.querySelector('.sweep.fail, .sweep.pass')).toBeNull();
+  });
 });

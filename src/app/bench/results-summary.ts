@@ -8,7 +8,14 @@ import { ChangeDetectionStrategy, Component, computed, input, output } from '@an
 import { MatButtonModule } from '@angular/material/button';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { SolveResult } from '../../../solver';
+import { sweepData, sweepKinds } from './panels/sweeps/sweep-data';
 import type { SolveStatus } from './solver-client';
+
+/** "85 °C", "−40 °C and 85 °C", "rg = 120 Ω, rg = 1 kΩ and 1 more". */
+function listed(labels: string[]): string {
+  if (labels.length <= 2) return labels.join(' and ');
+  return `${labels.slice(0, 2).join(', ')} and ${labels.length - 2} more`;
+}
 
 function db(value: number | undefined): string {
   return value === undefined || !Number.isFinite(value) ? '—' : `${value.toFixed(1)} dB`;
@@ -26,6 +33,11 @@ function db(value: number | undefined): string {
           @else if (stale()) { <span aria-hidden="true">{{ c.failed === 0 ? '✓' : '✕' }}</span> {{ c.total - c.failed }} of {{ c.total }} {{ c.total === 1 ? 'check' : 'checks' }} passed in an earlier version }
           @else if (c.failed === 0) { <span aria-hidden="true">✓</span> {{ c.total === 1 ? 'The check passes' : 'All ' + c.total + ' checks pass' }} }
           @else { <span aria-hidden="true">✕</span> {{ c.failed }} of {{ c.total }} {{ c.total === 1 ? 'check fails' : 'checks fail' }} }
+        </span>
+      }
+      @for (s of sweeps(); track s.kind) {
+        <span class="sweep" [class.fail]="!stale() && s.failing.length > 0" [class.pass]="!stale() && s.failing.length === 0" [class.old]="stale()" [title]="s.detail">
+          <span aria-hidden="true">{{ s.failing.length === 0 ? '✓' : '✕' }}</span> {{ s.text }}
         </span>
       }
       @if (result()?.ports; as p) {
@@ -59,6 +71,10 @@ function db(value: number | undefined): string {
     .verdict { font-weight: 700; padding: 2px 10px; border-radius: 12px; background: var(--mat-sys-surface-container-high); }
     .verdict.pass { background: #d7eedf; color: #0c4a2f; }
     .verdict.fail { background: #f7d9d6; color: #7a1812; }
+    .sweep { font-size: 0.875rem; font-weight: 600; padding: 1px 8px; border-radius: 12px; border: 1px solid var(--mat-sys-outline-variant); }
+    .sweep.pass { color: #0c4a2f; border-color: #9ccfb0; }
+    .sweep.fail { color: #7a1812; background: #f7d9d6; border-color: #e3a49e; }
+    .sweep.old { color: var(--mat-sys-on-surface-variant); border-style: dashed; font-style: italic; }
     .verdict.stale { background: transparent; color: var(--mat-sys-on-surface-variant); border: 1px dashed var(--mat-sys-outline); font-weight: 600; }
     .old .fig { color: var(--mat-sys-on-surface-variant); font-style: italic; }
     .fig { font-variant-numeric: tabular-nums; }
@@ -83,6 +99,27 @@ export class ResultsSummary {
   readonly cancel = output<void>();
 
   protected readonly db = db;
+  /**
+   * The checks over each sweep of the text (`analyze temp`, `analyze vary`): "✓ all hold at the
+   * 3 temperatures", or "✕ 1 fails at 85 °C" — a pass at the nominal value alone is not the whole
+   * answer when the netlist asks how the figures move.
+   */
+  protected readonly sweeps = computed(() => {
+    const r = this.result();
+    if (!r?.op || r.checks.length === 0) return [];
+    return sweepKinds(r).flatMap((kind) => {
+      const data = sweepData(r, kind);
+      if (!data) return [];
+      const failing = data.rows.filter((row) => row.failure !== undefined || row.failedChecks.length > 0);
+      const where = kind === 'temp' ? `the ${data.rows.length} temperatures` : `the ${data.rows.length} values of ${data.name}`;
+      const text = failing.length === 0
+        ? `${data.checkCount === 1 ? 'holds' : 'all hold'} at ${where}`
+        : `${failing.length === data.rows.length ? 'fails at every value' : 'fails at ' + listed(failing.map((row) => row.label))}`;
+      const detail = failing.map((row) => `${row.label}: ${row.failure ?? row.failedChecks.map((c) => c.text).join('; ')}`).join('\n');
+      return [{ kind, failing, text, detail: detail || `The checks pass at ${where}.` }];
+    });
+  });
+
   protected readonly checks = computed(() => {
     const r = this.result();
     if (!r || !r.op) return undefined;

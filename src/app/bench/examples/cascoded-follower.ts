@@ -46,6 +46,7 @@ clb:   cap(outb, gnd) 5p
 
 ports   in=(va, vb) out=(outa, outb)
 analyze ac from 10 Hz to 1 GHz per decade 20
+analyze vary rc over 6k 8k 10k          # gain against bandwidth and headroom
 
 measure a0    = db(adm)
 measure f3    = corner(adm)

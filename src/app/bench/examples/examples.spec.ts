@@ -28,6 +28,22 @@ describe('the Strainlab examples', () => {
     });
   }
 
+  it('each asks one of the sweeping analyses, and its checks mean something there', () => {
+    // Over −40…85 °C, across the bridge arms and the load values, every check holds in every run.
+    for (const [id, member] of [['resistor-tail', 'temp'], ['mirrored-tail', 'vary'], ['cascoded-follower', 'vary']] as const) {
+      const sweep = solved.get(id)![member]!;
+      expect(sweep.runs.length, id).toBe(3);
+      for (const run of sweep.runs) expect(run.checks.filter((c) => !c.pass), id).toEqual([]);
+    }
+    // Mismatched silicon: some parts fail the headroom checks of the high-gain single-ended
+    // output (it rails), so the yield is a real figure, neither 0 nor 1.
+    const m = solved.get('mirror-loaded')!.mismatch!;
+    expect(m.failed_runs).toBe(0);
+    expect(m.yield).toBeGreaterThan(0.5);
+    expect(m.yield).toBeLessThan(1);
+    expect(m.stats['vos'].sd).toBeLessThan(5e-3);
+  });
+
   it('resistor tail: adm matches the half-circuit gain −gm·(RC ∥ ro)·rπ/(rπ + RG)', () => {
     // Sedra & Smith, Microelectronic Circuits, 7th ed., differential-amplifier chapter
     // (differential half circuit, from memory), with the source resistance RG in series with rπ.

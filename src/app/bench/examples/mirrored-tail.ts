@@ -38,6 +38,7 @@ clb:   cap(outb, gnd) 5p
 
 ports   in=(va, vb) out=(outa, outb)
 analyze ac from 10 Hz to 1 GHz per decade 20
+analyze vary rg over 120 350 1k         # bridges with other arm resistances: gain and CMRR hold?
 
 measure a0    = db(adm)
 measure f3    = corner(adm)

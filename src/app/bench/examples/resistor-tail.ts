@@ -34,6 +34,7 @@ clb:   cap(outb, gnd) 5p
 
 ports   in=(va, vb) out=(outa, outb)
 analyze ac from 10 Hz to 1 GHz per decade 20
+analyze temp over -40 27 85             # the tail current (2.5 V − VBE)/rt follows VBE: do the checks hold?
 
 measure a0   = db(adm)
 measure f3   = corner(adm)

@@ -5,7 +5,7 @@ import { columnsCsv, fileStem } from '../plot/plot-export';
 import type { XyRule, XySeries } from '../plot/xy-geometry';
 import { XyPlot } from '../plot/xy-plot';
 import { formatQuantity, type Unit } from '../si-format';
-import { sweepLimits, sweepQuantities, wantsLogAxis, type SweepData } from './sweep-data';
+import { sweepLimits, sweepQuantities, wantsLogAxis, type SweepData, type SweepQuantity } from './sweep-data';
 
 let selectIds = 0;
 
@@ -56,7 +56,7 @@ export class SweepMeasurePlot {
 
   readonly quantities = computed(() => sweepQuantities(this.data(), this.units()));
   /** The chosen quantity while it exists; else the first measure, else adm. */
-  readonly quantity = computed(() => {
+  readonly quantity = computed<SweepQuantity | undefined>(() => {
     const all = this.quantities();
     return all.find((q) => q.key === this.chosen()) ?? all.find((q) => q.key.startsWith('measure:')) ?? all[0];
   });
