@@ -32,6 +32,8 @@ export default defineConfig({
           fileParallelism: false,
           testTimeout: 30000,
           hookTimeout: 60000,
+          // A page's first load on a busy machine takes seconds: expect.poll's own 1 s is too short.
+          expect: { poll: { timeout: 10000 } },
         },
       },
     ],

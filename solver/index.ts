@@ -8,7 +8,7 @@
  *   formatReport(result)                → the readable text report
  */
 export { solveNetlist, solveWithOutline, solveCircuit, type SolveOptions, type CircuitRun, type OutlinedSolve } from './solve';
-export type { NetlistOutline, OutlineSymbols, OutlineMeasure, OutlineCheck, OutlineUse } from './parse/outline';
+export type { NetlistOutline, OutlineSymbols, OutlineMeasure, OutlineCheck, OutlineUse, OutlineAnalysis } from './parse/outline';
 export { parseNetlist } from './elaborate/parse-netlist';
 export type * from './parse/parse-netlist';
 export { readBlockDocs, type BlockDoc, type DocumentedPin, type DocumentedParam } from './parse/block-doc';

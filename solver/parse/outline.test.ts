@@ -72,10 +72,15 @@ describe('the outline of a solve', () => {
     expect(outline.uses).toEqual([{ path: 'lib/missing', version: 1, line: 9 }]);
   });
 
+  it('knows the analyze lines by their kind word, even one still being typed', () => {
+    const { outline } = solveWithOutline(`${TEXT}analyze ac from 10 to 1k per decade 5\nanalyze temp over\nanalyze\nanalyze mismatch runs 10 is 1%\n`, { resolveUse });
+    expect(outline.analyses).toEqual([{ kind: 'ac', line: 21 }, { kind: 'temp', line: 22 }, { kind: 'mismatch', line: 24 }]);
+  });
+
   it('is empty for empty or non-text input, and never throws', () => {
     for (const text of ['', '   \n', undefined as unknown as string]) {
       const { outline } = solveWithOutline(text);
-      expect(outline).toEqual({ symbols: { models: [], blocks: [], params: [], parts: [], nodes: [], measures: [] }, measures: [], checks: [], uses: [] });
+      expect(outline).toEqual({ symbols: { models: [], blocks: [], params: [], parts: [], nodes: [], measures: [] }, measures: [], checks: [], uses: [], analyses: [] });
     }
   });
 });

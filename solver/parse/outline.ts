@@ -1,7 +1,7 @@
 /**
  * The outline of a netlist: what the editor needs to know about the text it shows, taken from the
  * one parse of a solve so the bench never parses the text again. The names the netlist defines
- * (with the kinds of its models and parts), its measure and check lines, and its `use` lines.
+ * (with the kinds of its models and parts), its measure, check and analyze lines, and its `use` lines.
  * Lines are 1-based and, for a statement continued with `\`, its first physical line.
  */
 import type { Circuit } from '../circuit/types';
@@ -45,15 +45,23 @@ export interface OutlineUse {
   line: number;
 }
 
+/** An `analyze KIND …` line, known by its kind word even while the rest of it is being typed. */
+export interface OutlineAnalysis {
+  /** The word after `analyze` as written (`ac`, `temp`, … or a misspelling). */
+  kind: string;
+  line: number;
+}
+
 export interface NetlistOutline {
   symbols: OutlineSymbols;
   measures: OutlineMeasure[];
   checks: OutlineCheck[];
   uses: OutlineUse[];
+  analyses: OutlineAnalysis[];
 }
 
 export function emptyOutline(): NetlistOutline {
-  return { symbols: { models: [], blocks: [], params: [], parts: [], nodes: [], measures: [] }, measures: [], checks: [], uses: [] };
+  return { symbols: { models: [], blocks: [], params: [], parts: [], nodes: [], measures: [] }, measures: [], checks: [], uses: [], analyses: [] };
 }
 
 /** The text's own lines: measures, checks and uses, known as soon as the file is parsed. */
@@ -62,6 +70,7 @@ export function outlineOfFile(file: FileUnit): NetlistOutline {
   for (const r of file.requests) {
     if (r.kind === 'measure') outline.measures.push({ name: r.name.text, line: r.loc.line, expression: r.expr?.text.trim() ?? '' });
     else if (r.kind === 'check') outline.checks.push({ line: r.loc.line, expression: r.text });
+    else if (r.kind === 'analyze' && r.tokens[1]?.type === 'ident') outline.analyses.push({ kind: r.tokens[1].text, line: r.loc.line });
   }
   outline.symbols.measures = outline.measures.map((m) => m.name);
   outline.uses = file.uses.map((u) => ({ path: u.path, version: u.version, line: u.loc.line }));

@@ -149,7 +149,7 @@ describe('the Sweeps tab', () => {
     const page = await openBench();
     await replaceNetlist(page, PAIR.replace(/^analyze (vary|temp).*\n/gm, ''));
     await waitForPainted(page);
-    await page.getByRole('tab', { name: 'Sweeps' }).click();
+    await page.getByRole('tab', { name: 'Other analyses' }).click();
     const notice = page.locator('nw-sweeps-panel nw-panel-notice');
     await notice.waitFor();
     expect(await notice.textContent()).toContain('analyze temp over -40 27 125');

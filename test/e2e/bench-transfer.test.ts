@@ -188,7 +188,9 @@ describe('the Transfer tab', () => {
 
   it('explains how to ask for a transfer curve when the netlist has none', async () => {
     const page = await openBench('?example=resistor-tail');
-    await page.getByRole('tab', { name: 'Transfer' }).click();
+    // A netlist without `analyze transfer` has no Transfer tab: the how-to waits under "Other analyses".
+    expect(await page.getByRole('tab', { name: 'Transfer' }).count()).toBe(0);
+    await page.getByRole('tab', { name: 'Other analyses' }).click();
     const notice = page.locator('nw-transfer-panel nw-panel-notice');
     await notice.waitFor();
     expect(await notice.textContent()).toContain('analyze transfer SOURCE from START to STOP step STEP');

@@ -18,7 +18,7 @@ class EchoWorker implements WorkerLike {
     const op = m.text.includes('ERR') ? undefined : { nodes: {}, sources: {}, parts: {}, devices: {} };
     const result = { title: m.text, temp_c: 27, op, measures: {}, checks: [], warnings: [], errors } as SolveResult;
     // Its one check line carries the text, so a test can tell which text's lines are shown.
-    const reply: SolveReply = { type: 'solved', id: m.id, result, text: m.text, names: NO_NAMES, lines: { measures: [], checks: [{ line: 1, expression: m.text }] }, solveMs: 1 };
+    const reply: SolveReply = { type: 'solved', id: m.id, result, text: m.text, names: NO_NAMES, lines: { measures: [], checks: [{ line: 1, expression: m.text }], analyses: [] }, solveMs: 1 };
     queueMicrotask(() => this.onmessage?.({ data: reply } as MessageEvent<WorkerMessage>));
   }
   terminate(): void {}

@@ -1,6 +1,7 @@
 /**
- * The results side of a bench: the summary line, the panels (Bias, Response, Modes, Transfer,
- * Sweeps, Checks & measures) and the standing caution. The bench and the shared view both render it, from the
+ * The results side of a bench: the summary line, the panels (Bias, Response, Modes, then Transfer,
+ * Sweeps and Mismatch when the text asks for them, Checks & measures, and the analyses not asked
+ * for yet under "Other analyses" with how to ask) and the standing caution. The bench and the shared view both render it, from the
  * same solver, so a reviewer sees the very numbers the author saw.
  */
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
@@ -22,6 +23,10 @@ import { NO_LINES, type RequestLines } from './solver-protocol';
 
 let noteIds = 0;
 
+/** The tabs of analyses a netlist may or may not ask for, in tab order. */
+const OPTIONAL_TABS = ['transfer', 'sweeps', 'mismatch'] as const;
+type OptionalTab = (typeof OPTIONAL_TABS)[number];
+
 @Component({
   selector: 'nw-results-panels',
   imports: [ResultsSummary, Cautions, MatTabsModule, BiasPanel, ResponsePanel, ModesPanel, ChecksPanel, MeasuresPanel, TransferPanel, SweepsPanel, MismatchPanel, SensitivityTable],
@@ -41,15 +46,22 @@ let noteIds = 0;
       <mat-tab label="Modes">
         <ng-template matTabContent><div class="panel"><nw-modes-panel [result]="result()" /></div></ng-template>
       </mat-tab>
-      <mat-tab label="Transfer">
-        <ng-template matTabContent><div class="panel"><nw-transfer-panel [result]="result()" /></div></ng-template>
-      </mat-tab>
-      <mat-tab label="Sweeps">
-        <ng-template matTabContent><div class="panel"><nw-sweeps-panel [result]="result()" [measureLines]="lines().measures" [params]="params()" [stale]="stale()" /></div></ng-template>
-      </mat-tab>
-      <mat-tab label="Mismatch">
-        <ng-template matTabContent><div class="panel"><nw-mismatch-panel [result]="result()" [lines]="lines()" /></div></ng-template>
-      </mat-tab>
+      <!-- The analyses the text asks for get a tab each; the others wait under "Other analyses". -->
+      @if (asked().has('transfer')) {
+        <mat-tab label="Transfer">
+          <ng-template matTabContent><div class="panel"><nw-transfer-panel [result]="result()" /></div></ng-template>
+        </mat-tab>
+      }
+      @if (asked().has('sweeps')) {
+        <mat-tab label="Sweeps">
+          <ng-template matTabContent><div class="panel"><nw-sweeps-panel [result]="result()" [measureLines]="lines().measures" [params]="params()" [stale]="stale()" /></div></ng-template>
+        </mat-tab>
+      }
+      @if (asked().has('mismatch')) {
+        <mat-tab label="Mismatch">
+          <ng-template matTabContent><div class="panel"><nw-mismatch-panel [result]="result()" [lines]="lines()" /></div></ng-template>
+        </mat-tab>
+      }
       <mat-tab>
         <ng-template mat-tab-label>
           Checks &amp; measures
@@ -65,6 +77,22 @@ let noteIds = 0;
           }
         </div></ng-template>
       </mat-tab>
+      @if (notAsked().length > 0) {
+        <mat-tab label="Other analyses">
+          <ng-template matTabContent><div class="panel others">
+            <p class="others-intro">Not in this netlist yet. Each one below says how to ask for it.</p>
+            @for (kind of notAsked(); track kind) {
+              <section [attr.aria-labelledby]="'nw-other-' + kind">
+                @switch (kind) {
+                  @case ('transfer') { <h2 class="sub" id="nw-other-transfer">Transfer curve</h2><nw-transfer-panel [result]="result()" /> }
+                  @case ('sweeps') { <h2 class="sub" id="nw-other-sweeps">Sweeps: a param or the temperature</h2><nw-sweeps-panel [result]="result()" [measureLines]="lines().measures" [params]="params()" [stale]="stale()" /> }
+                  @case ('mismatch') { <h2 class="sub" id="nw-other-mismatch">Mismatch</h2><nw-mismatch-panel [result]="result()" [lines]="lines()" /> }
+                }
+              </section>
+            }
+          </div></ng-template>
+        </mat-tab>
+      }
     </mat-tab-group>
     <nw-cautions class="caution" />
   `,
@@ -85,6 +113,8 @@ let noteIds = 0;
     .badge.old { border: 1px dashed var(--mat-sys-outline); color: var(--mat-sys-on-surface-variant); }
     .sub { font: var(--mat-sys-title-small); margin: 18px 0 6px; color: var(--mat-sys-on-surface-variant); }
     .caution { display: block; flex: none; }
+    .others-intro { margin: 0 0 4px; color: var(--mat-sys-on-surface-variant); font-size: 0.875rem; }
+    .others section + section { margin-top: 8px; border-top: 1px solid var(--mat-sys-outline-variant); }
     .caution ::ng-deep .caution { margin-top: 8px; padding: 6px 10px; font-size: 0.8125rem; }
   `,
 })
@@ -109,5 +139,16 @@ export class ResultsPanels {
   readonly lineSelected = output<number>();
 
   protected readonly noteId = `nw-stale-note-${++noteIds}`;
+  /** The optional tabs the text asks for (by its analyze lines, or the result's members). */
+  protected readonly asked = computed(() => {
+    const kinds = new Set(this.lines().analyses.map((a) => a.kind));
+    const r = this.result();
+    const asked = new Set<OptionalTab>();
+    if (kinds.has('transfer') || r?.transfer) asked.add('transfer');
+    if (kinds.has('vary') || kinds.has('temp') || r?.vary || r?.temp) asked.add('sweeps');
+    if (kinds.has('mismatch') || r?.mismatch) asked.add('mismatch');
+    return asked;
+  });
+  protected readonly notAsked = computed(() => OPTIONAL_TABS.filter((t) => !this.asked().has(t)));
   protected readonly failedChecks = computed(() => this.result()?.checks.filter((c) => !c.pass).length ?? 0);
 }

@@ -23,7 +23,7 @@ export function solveReply(id: number, text: string, options: { resolveUse?: Sol
   return {
     type: 'solved', id, result, text,
     names: { ...outline.symbols, uses: outline.uses.map(options.describeUse ?? UNRESOLVED) },
-    lines: { measures: outline.measures, checks: outline.checks },
+    lines: { measures: outline.measures, checks: outline.checks, analyses: outline.analyses },
     solveMs: performance.now() - started,
     ...(mismatch ? { mismatch: mismatchAsk(mismatch, options.library ?? {}) } : {}),
   };

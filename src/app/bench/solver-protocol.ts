@@ -52,10 +52,10 @@ export type NetlistNames = OutlineSymbols & { uses: UsedBlock[] };
 
 export const NO_NAMES: NetlistNames = { models: [], blocks: [], params: [], parts: [], nodes: [], measures: [], uses: [] };
 
-/** The text's measure and check lines (line, name, expression as written), from the parse that gave the result. */
-export type RequestLines = Pick<NetlistOutline, 'measures' | 'checks'>;
+/** The text's measure, check and analyze lines (line, name, expression as written), from the parse that gave the result. */
+export type RequestLines = Pick<NetlistOutline, 'measures' | 'checks' | 'analyses'>;
 
-export const NO_LINES: RequestLines = { measures: [], checks: [] };
+export const NO_LINES: RequestLines = { measures: [], checks: [], analyses: [] };
 
 /** A block version's source pinned by a share link. */
 export interface PinnedBlock {

@@ -83,7 +83,7 @@ describe('SharedPage', () => {
     expect(view.state.readOnly).toBe(true);
     expect(view.state.doc.toString()).toBe(RESISTOR_TAIL_PAIR);
     expect(el.querySelector('nw-results-summary')?.textContent).toMatch(/check/);
-    expect([...el.querySelectorAll('[role=tab]')].map((t) => t.textContent?.trim().split(/\s+/)[0])).toEqual(['Bias', 'Response', 'Modes', 'Transfer', 'Sweeps', 'Mismatch', 'Checks']);
+    expect([...el.querySelectorAll('[role=tab]')].map((t) => t.textContent?.trim().split(/\s+/)[0])).toEqual(['Bias', 'Response', 'Modes', 'Checks', 'Other']);
     expect(el.querySelector('nw-cautions')?.textContent).toMatch(/First-order device models/);
   });
 

@@ -1,0 +1,43 @@
+import { TestBed } from '@angular/core/testing';
+import { solveWithOutline } from '../../../solver';
+import { RESISTOR_TAIL_PAIR } from './panels/testing/netlists';
+import { ResultsPanels } from './results-panels';
+
+/** The panels for a text, with the lines of the same parse, as the bench passes them. */
+async function render(text: string) {
+  const { result, outline } = solveWithOutline(text, { skip: ['mismatch'] });
+  const fixture = TestBed.createComponent(ResultsPanels);
+  fixture.componentRef.setInput('result', result);
+  fixture.componentRef.setInput('lines', { measures: outline.measures, checks: outline.checks, analyses: outline.analyses });
+  await fixture.whenStable();
+  const el = fixture.nativeElement as HTMLElement;
+  return { fixture, el, tabs: () => [...el.querySelectorAll('[role=tab]')].map((t) => t.textContent!.trim().replace(/\s+/g, ' ')) };
+}
+
+describe('ResultsPanels', () => {
+  it('gives the analyses the text asks for a tab each, and keeps the others under "Other analyses"', async () => {
+    const plain = await render(RESISTOR_TAIL_PAIR);
+    expect(plain.tabs()).toEqual(['Bias', 'Response', 'Modes', 'Checks & measures', 'Other analyses']);
+    const swept = await render(`${RESISTOR_TAIL_PAIR}analyze temp over -40 27 85\nanalyze transfer va from -50m to 50m step 5m\n`);
+    expect(swept.tabs()).toEqual(['Bias', 'Response', 'Modes', 'Transfer', 'Sweeps', 'Checks & measures', 'Other analyses']);
+    const all = await render(`${RESISTOR_TAIL_PAIR}analyze vary rc over 5k 10k\nanalyze transfer va from -50m to 50m step 5m\nanalyze mismatch runs 10 is 1%\n`);
+    expect(all.tabs()).toEqual(['Bias', 'Response', 'Modes', 'Transfer', 'Sweeps', 'Mismatch', 'Checks & measures']);
+  });
+
+  it('keeps a tab while its analyze line is still being typed', async () => {
+    const typing = await render(`${RESISTOR_TAIL_PAIR}analyze temp over\n`);
+    expect(typing.tabs()).toContain('Sweeps');
+  });
+
+  it('says under "Other analyses" how to ask for each analysis the text lacks', async () => {
+    const { el, fixture } = await render(`${RESISTOR_TAIL_PAIR}analyze temp over -40 27 85\n`);
+    const other = [...el.querySelectorAll<HTMLElement>('[role=tab]')].find((t) => t.textContent!.includes('Other analyses'))!;
+    other.click();
+    fixture.detectChanges();
+    await fixture.whenStable();
+    const text = el.textContent!;
+    expect(text).toContain('Transfer curve');
+    expect(text).toContain('No mismatch analysis yet');
+    expect(text).not.toContain('Sweeps: a param or the temperature');
+  });
+});
