@@ -8,7 +8,8 @@ import { describe, expect, it } from 'vitest';
  * folders listed before it, so no stage reaches back into one that depends on it and there is no
  * cycle between folders. DEVELOPERS.md (Where things are → solver/) gives the same order.
  *
- * - numeric: dense real and complex LU, phasor arithmetic, curves from phasors; imports nothing.
+ * - numeric: dense and sparse real and complex LU (pattern, ordering, equilibration), phasor
+ *   arithmetic, curves from phasors; imports nothing.
  * - circuit: the flattened circuit's types, the diagnostics, the requests' types, the result
  *   contract (§5), topology checks.
  * - language: the vocabulary tables (statements, analyses, functions, part kinds).

@@ -30,6 +30,8 @@ export { tokenize, type Token } from './parse/tokens';
 export { parseQuantity } from './parse/quantity';
 export { INFINITE_OHMS } from './report/si-format';
 export { corner, unity, CORNER_DB } from './measure/curve';
+// The noise band rule (power law between grid points) the report and the noise measures share.
+export { bandPower, powerAt } from './report/noise-band';
 // Mismatch runs by range and their summary: the bench spreads the runs over several workers.
 export { mismatchSamples, summarizeMismatch, perturbedCircuit, MAX_MISMATCH_WORK, type MismatchSample } from './run/mismatch';
 export type { SampleStats } from './numeric/stats';

@@ -3,27 +3,15 @@
  * `analyze temp` on the cascoded demo netlist, each against one plain solve of it. Target: at
  * most 11× (the text is read and its library resolved once; each value costs one run).
  */
-import { performance } from 'node:perf_hooks';
 import { CASCODED_FOLLOWER } from '../src/app/bench/examples/cascoded-follower';
 import { solveNetlist } from '../solver';
+import { medianMs } from './timing';
 
 const TEN_VALUES = {
   vary: 'analyze vary rc over 6k 6.5k 7k 7.5k 8k 8.5k 9k 9.5k 10k 10.5k',
   temp: 'analyze temp over -40 -20 0 20 27 40 60 85 105 125',
 };
 
-/** Median wall time of `fn` in ms over `runs` calls (after one warm-up). */
-function medianMs(fn: () => void, runs: number): number {
-  fn();
-  const samples: number[] = [];
-  for (let k = 0; k < runs; k++) {
-    const t0 = performance.now();
-    fn();
-    samples.push(performance.now() - t0);
-  }
-  samples.sort((a, b) => a - b);
-  return samples[Math.floor(samples.length / 2)];
-}
 
 /** Prints the sweep rows and returns whether both met the target. */
 export function benchSweeps(): boolean {

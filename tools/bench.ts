@@ -5,10 +5,12 @@
  * alternately a resistor tail and a two-transistor mirror tail), each stage's outputs driving the next stage's bases;
  * sized to about 10, 30, 100 and 300 nodes. For each: the DC operating point; the AC solve per
  * frequency point (G + jωC formed into preallocated storage, one complex LU, one back-solve);
- * (a) the floor: a bare copy + complex LU factor + solve of the same matrix; (b) the peer: the
- * same AC system solved with mathjs complex `lusolve`; and, beside them, ml-matrix's LU on the
+ * (a) the floor: a bare copy + complex LU factor + solve of the same matrix with the engine's
+ * own LU (sparse from DENSE_CROSSOVER unknowns on, ./bench-sparse.ts); (b) the peer: the same AC
+ * system solved with mathjs complex `lusolve`; and, beside them, ml-matrix's LU on the
  * real-equivalent 2n system [[G, −ωC], [ωC, G]], and ml-matrix's real LU against ours on the
- * DC Newton matrix.
+ * DC Newton matrix. Then ./bench-sparse.ts: the sparse engine from 10 to 1000 nodes against the
+ * dense LU and mathjs's sparse LU, the 162-transistor operating point, the dense/sparse crossover.
  *
  * Targets: ours/floor ≤ 1.5 and peer/ours ≥ 20 for n ≥ 30; a 50-transistor operating point well
  * under 20 ms.
@@ -24,9 +26,11 @@ import { isOpFailure, solveOperatingPoint } from '../solver/analysis/operating-p
 import { linearize } from '../solver/analysis/small-signal';
 import { bjtModel, circuitOf, type PartSpec } from '../solver/analysis/test-circuits';
 import type { Circuit } from '../solver/circuit/types';
-import { complexLuFactor, complexLuSolve } from '../solver/numeric/complex-lu';
-import { DenseRealLu } from '../solver/numeric/dense-lu';
+import { createComplexSolver, createRealSolver } from '../solver/numeric/linear-solver';
 import { benchMismatch } from './bench-mismatch';
+import { benchNoise } from './bench-noise';
+import { benchPoles } from './bench-poles';
+import { benchSparse } from './bench-sparse';
 import { benchSweeps } from './bench-sweeps';
 
 /** A chain of `stages` differential stages; returns the circuit and its transistor count. */
@@ -93,10 +97,10 @@ function requireOp(c: Circuit): OperatingPoint {
   return op;
 }
 
-/** The AC matrix G + jωC as split arrays. */
+/** The AC matrix G + jωC as split arrays of values on the system's pattern. */
 function formAc(sys: LinearSystem, omega: number): { re: Float64Array; im: Float64Array } {
-  const re = Float64Array.from(sys.G);
-  const im = Float64Array.from(sys.C, (c) => omega * c);
+  const re = Float64Array.from(sys.sparse!.g);
+  const im = Float64Array.from(sys.sparse!.c, (c) => omega * c);
   return { re, im };
 }
 
@@ -142,21 +146,21 @@ function benchOne(stages: number): Row {
     solver.solve(f * (1 + (k++ % 7) * 0.01), [excitation]);
   });
 
-  // (a) Floor: bare copy + factor + solve of the same complex matrix.
+  // (a) Floor: bare copy + factor + solve of the same complex matrix with the engine's LU.
   const { re: re0, im: im0 } = formAc(sys, omega);
-  const re = new Float64Array(n * n);
-  const im = new Float64Array(n * n);
-  const piv = new Int32Array(n);
+  const re = new Float64Array(re0.length);
+  const im = new Float64Array(im0.length);
+  const floorLu = createComplexSolver(sys.sparse!.pattern);
   const { br: br0, bi: bi0 } = rhs(sys);
   const br = new Float64Array(n);
   const bi = new Float64Array(n);
   const floorUs = timeUs(() => {
     re.set(re0);
     im.set(im0);
-    complexLuFactor(re, im, n, piv);
+    floorLu.factor(re, im);
     br.set(br0);
     bi.set(bi0);
-    complexLuSolve(re, im, n, piv, br, bi);
+    floorLu.solve(br, bi);
   });
 
   // (b) Peer: mathjs complex lusolve on the same system (matrix built per point, as a user would).
@@ -190,18 +194,19 @@ function benchOne(stages: number): Row {
   // The DC hot path: our real LU against ml-matrix's on the Newton matrix at the solution.
   const ws = new NewtonWorkspace(circuit, buildLayout(circuit));
   ws.prepare(1, circuit.options.minG);
-  const a = Float64Array.from(ws.aLin);
+  const a = Float64Array.from(ws.linValues);
   const bDc = Float64Array.from(ws.bLin);
   ws.devices.stateFrom(op.x);
   ws.devices.stamp(op.x, a, bDc, false);
-  const lu = new DenseRealLu(n);
+  const lu = createRealSolver(ws.pattern);
   const x = new Float64Array(n);
   const newtonLuUs = timeUs(() => {
     lu.factor(a);
     x.set(bDc);
     lu.solve(x);
   });
-  const rows2d = Array.from({ length: n }, (_, i) => Array.from(a.subarray(i * n, i * n + n)));
+  const aDense = ws.pattern.toDense(a);
+  const rows2d = Array.from({ length: n }, (_, i) => Array.from(aDense.subarray(i * n, i * n + n)));
   const mlRealUs = timeUs(() => {
     new LuDecomposition(new Matrix(rows2d)).solve(Matrix.columnVector(Array.from(bDc)));
   }, 400, n > 150 ? 50 : 1000);
@@ -241,6 +246,10 @@ async function main(): Promise<void> {
   const okFloor = big.every((r) => r.acUs / r.floorUs <= 1.5);
   const okPeer = big.every((r) => r.peerUs / r.acUs >= 20);
   console.log(`targets for n ≥ 30: ours/floor ≤ 1.5 ${okFloor ? 'met' : 'NOT met'}; peer/ours ≥ 20 ${okPeer ? 'met' : 'NOT met'}; OP < 20 ms ${opMs < 20 ? 'met' : 'NOT met'}`);
+  // The output of each chain is its last stage's pair of collectors.
+  benchNoise(sizes.map((stages) => ({ circuit: diffChain(stages).circuit, outA: `s${stages - 1}.outa`, outB: `s${stages - 1}.outb` })));
+  benchPoles(sizes.map((stages) => ({ circuit: diffChain(stages).circuit, outA: `s${stages - 1}.outa`, outB: `s${stages - 1}.outb` })));
+  benchSparse(diffChain);
   benchSweeps();
   await benchMismatch();
 }

@@ -1,37 +1,41 @@
 /**
  * The AC solver: (G + j·2πf·C)·x = b at one frequency, one complex LU per frequency and one
  * back-substitution per excitation, all in storage allocated once per system.
+ *
+ * The matrix is formed on the circuit's sparse pattern (O(nonzeros) per frequency) and factored
+ * by numeric/linear-solver.ts: dense for tiny circuits, else the sparse LU, which refactors each
+ * new frequency on the pivot order of the last one (choosing pivots again only when one has
+ * degraded). The transposed solve for noise and sensitivity uses the same factors.
  */
 import { GROUND } from '../circuit/types';
-import { complexLuFactor, complexLuSolve, complexLuSolveTransposed } from '../numeric/complex-lu';
+import { createComplexSolver, type SolverKind } from '../numeric/linear-solver';
 import type { AcSolution, AcSolver, AdjointSolution, Excitation, LinearSystem, Phasor } from './engine-api';
+import { sparseOf } from './small-signal';
 
 export { logSweep, unwrapPhaseDeg } from './frequency';
 
 const ZERO: Phasor = Object.freeze({ re: 0, im: 0 }) as Phasor;
 
-/** Creates a solver over `system`; the system's matrices are read, never modified. */
-export function createAcSolver(system: LinearSystem): AcSolver {
+/**
+ * Creates a solver over `system`; the system's matrices are read, never modified. `kind` forces
+ * the dense or the sparse LU (tests and the bench); by default it is chosen by size.
+ */
+export function createAcSolver(system: LinearSystem, kind: SolverKind = 'auto'): AcSolver {
   const n = system.size;
-  const re = new Float64Array(n * n);
-  const im = new Float64Array(n * n);
-  const pivots = new Int32Array(n);
-  // C is sparse (a few entries per capacitor): keep its nonzeros so forming j·ω·C costs O(nnz).
-  const cIndex: number[] = [];
-  for (let i = 0; i < n * n; i++) if (system.C[i] !== 0) cIndex.push(i);
-  const cAt = Int32Array.from(cIndex);
-  const cVal = Float64Array.from(cIndex, (i) => system.C[i]);
+  const { pattern, g, c } = sparseOf(system);
+  const lu = createComplexSolver(pattern, kind);
+  const re = new Float64Array(pattern.nnz);
+  const im = new Float64Array(pattern.nnz);
 
-  /** The frequency whose factors `re`/`im` hold (NaN: none yet). */
+  /** The frequency whose factors the LU holds (NaN: none yet). */
   let factoredAt = NaN;
   let singular = false;
   const factor = (freqHz: number) => {
     if (freqHz === factoredAt) return;
     const omega = Number.isFinite(freqHz) ? 2 * Math.PI * freqHz : 0;
-    re.set(system.G);
-    im.fill(0);
-    for (let k = 0; k < cAt.length; k++) im[cAt[k]] = omega * cVal[k];
-    singular = complexLuFactor(re, im, n, pivots) >= 0;
+    re.set(g);
+    for (let k = 0; k < c.length; k++) im[k] = omega * c[k];
+    singular = lu.factor(re, im) >= 0;
     factoredAt = freqHz;
   };
 
@@ -42,7 +46,7 @@ export function createAcSolver(system: LinearSystem): AcSolver {
       const yi = Float64Array.from(rhsIm);
       let bad = singular;
       if (!bad) {
-        complexLuSolveTransposed(re, im, n, pivots, yr, yi);
+        lu.solveTransposed(yr, yi);
         for (let i = 0; i < n && !bad; i++) if (!Number.isFinite(yr[i]) || !Number.isFinite(yi[i])) bad = true;
       }
       if (bad) {
@@ -60,7 +64,7 @@ export function createAcSolver(system: LinearSystem): AcSolver {
         let bad = singular;
         if (!bad) {
           fillExcitation(system, ex, xr, xi);
-          complexLuSolve(re, im, n, pivots, xr, xi);
+          lu.solve(xr, xi);
           // A nearly singular matrix can still overflow: never hand out NaN or Infinity.
           for (let i = 0; i < n && !bad; i++) if (!Number.isFinite(xr[i]) || !Number.isFinite(xi[i])) bad = true;
           if (bad) {

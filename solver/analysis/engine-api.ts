@@ -12,6 +12,14 @@ import type { Diagnostic } from '../circuit/diagnostic';
 import type { Circuit } from '../circuit/types';
 import type { OpResult } from '../circuit/result';
 import type { Phasor } from '../numeric/complex';
+import type { SparsePattern } from '../numeric/sparse-pattern';
+
+/**
+ * Most MNA unknowns a circuit may have: the elaborator refuses a larger circuit before any
+ * matrix is allocated. Declared with the circuit types (elaboration comes before the engine);
+ * an engine that holds more raises it there.
+ */
+export { MAX_UNKNOWNS } from '../circuit/capacity';
 
 /** A converged DC operating point. */
 export interface OperatingPoint {
@@ -40,17 +48,32 @@ export interface OpFailure {
 /**
  * The linearised circuit at an operating point: (G + sC)·x = b(s) over the same unknowns as the
  * DC system. Independent sources contribute nothing until an excitation is given.
+ *
+ * The engine's own storage is `sparse` (values of G and C on the circuit's pattern); `G` and `C`
+ * are dense row-major views of the same matrices, built on first access (by `linearize`'s
+ * systems) and kept — O(size²) memory, so read them only where a dense matrix is really needed
+ * (e.g. the generalised eigenvalues of the poles analysis). A system written by hand may give
+ * only `G` and `C`: the AC solver then derives the pattern from their nonzeros.
  */
 export interface LinearSystem {
   size: number;
   nodeIndex: Map<string, number>;
   branchIndex: Map<string, number>;
-  /** Row-major size×size conductance matrix. */
-  G: Float64Array;
-  /** Row-major size×size capacitance (and inductance) matrix. */
-  C: Float64Array;
+  /** Row-major size×size conductance matrix (dense view). */
+  readonly G: Float64Array;
+  /** Row-major size×size capacitance (and inductance) matrix (dense view). */
+  readonly C: Float64Array;
+  /** G and C as values on one sparse pattern (CSC), the AC solver's input. */
+  sparse?: SparseSystem;
   /** Names of independent sources and how to excite each: voltage sources by their branch row. */
   sources: Map<string, { kind: 'vsrc'; row: number } | { kind: 'isrc'; from: number; to: number }>;
+}
+
+/** A linear system's matrices on its circuit's sparsity pattern: one value per slot of `pattern`. */
+export interface SparseSystem {
+  pattern: SparsePattern;
+  g: Float64Array;
+  c: Float64Array;
 }
 
 /** Complex phasor as a pair, to avoid allocation in the hot loop (declared in numeric/complex.ts). */

@@ -8,6 +8,7 @@
  * = 0", or the branch equation of branch i.
  */
 import { GROUND, partNodes, type Circuit } from '../circuit/types';
+import { PatternBuilder, type SparsePattern } from '../numeric/sparse-pattern';
 
 /** Index of a ground connection: stamps skip it. */
 export const GROUND_INDEX = -1;
@@ -77,17 +78,47 @@ export function nodeRow(layout: MnaLayout, name: string): number {
   return i === undefined ? GROUND_INDEX : i;
 }
 
-/** Adds `v` at (r, c) of a row-major n×n matrix, skipping ground. */
-export function addEntry(m: Float64Array, n: number, r: number, c: number, v: number): void {
-  if (r >= 0 && c >= 0) m[r * n + c] += v;
+/**
+ * Where stamps go: values on the circuit's sparse pattern ({@link PatternValues}), a dense
+ * row-major matrix ({@link DenseMatrix}), or a {@link PatternBuilder} collecting the positions.
+ * Ground (a negative index) is skipped by every implementation.
+ */
+export interface StampSink {
+  add(r: number, c: number, v: number): void;
+}
+
+/** Values on a sparse pattern, one per slot; a stamp outside the pattern is an engine defect. */
+export class PatternValues implements StampSink {
+  constructor(readonly pattern: SparsePattern, readonly values: Float64Array = new Float64Array(pattern.nnz)) {}
+
+  add(r: number, c: number, v: number): void {
+    if (r < 0 || c < 0) return;
+    const slot = this.pattern.slot(r, c);
+    if (slot < 0) throw new Error(`stamp at (${r}, ${c}) outside the circuit's pattern`);
+    this.values[slot] += v;
+  }
+}
+
+/** A dense row-major n×n matrix as a stamp target. */
+export class DenseMatrix implements StampSink {
+  constructor(readonly n: number, readonly m: Float64Array = new Float64Array(n * n)) {}
+
+  add(r: number, c: number, v: number): void {
+    if (r >= 0 && c >= 0) this.m[r * this.n + c] += v;
+  }
+}
+
+/** Adds `v` at (r, c), skipping ground. */
+export function addEntry(m: StampSink, r: number, c: number, v: number): void {
+  m.add(r, c, v);
 }
 
 /** Stamps a conductance g between rows a and b. */
-export function stampConductance(m: Float64Array, n: number, a: number, b: number, g: number): void {
-  addEntry(m, n, a, a, g);
-  addEntry(m, n, b, b, g);
-  addEntry(m, n, a, b, -g);
-  addEntry(m, n, b, a, -g);
+export function stampConductance(m: StampSink, a: number, b: number, g: number): void {
+  m.add(a, a, g);
+  m.add(b, b, g);
+  m.add(a, b, -g);
+  m.add(b, a, -g);
 }
 
 /** What {@link stampLinear} should build. */
@@ -107,22 +138,21 @@ export interface LinearStampOptions {
 export function stampLinear(
   circuit: Circuit,
   layout: MnaLayout,
-  G: Float64Array,
-  C: Float64Array | null,
+  G: StampSink,
+  C: StampSink | null,
   b: Float64Array | null,
   opts: LinearStampOptions,
 ): void {
-  const n = layout.size;
   const row = (name: string) => nodeRow(layout, name);
   for (const p of circuit.parts) {
     switch (p.kind) {
       case 'res': {
         const g = conductanceOf(p.value);
-        stampConductance(G, n, row(p.a), row(p.b), g);
+        stampConductance(G, row(p.a), row(p.b), g);
         break;
       }
       case 'cap':
-        if (C) stampConductance(C, n, row(p.a), row(p.b), p.value);
+        if (C) stampConductance(C, row(p.a), row(p.b), p.value);
         break;
       case 'ind':
       case 'vsrc':
@@ -131,16 +161,16 @@ export function stampLinear(
         const pa = row(p.kind === 'ind' ? p.a : p.p);
         const pb = row(p.kind === 'ind' ? p.b : p.n);
         // KCL: the branch current leaves `pa` and enters `pb`.
-        addEntry(G, n, pa, k, 1);
-        addEntry(G, n, pb, k, -1);
+        G.add(pa, k, 1);
+        G.add(pb, k, -1);
         // Branch equation: v(pa) − v(pb) [− gain·v(cp, cn)] [− s·L·i] = dc.
-        addEntry(G, n, k, pa, 1);
-        addEntry(G, n, k, pb, -1);
+        G.add(k, pa, 1);
+        G.add(k, pb, -1);
         if (p.kind === 'vcvs') {
-          addEntry(G, n, k, row(p.cp), -p.gain);
-          addEntry(G, n, k, row(p.cn), p.gain);
+          G.add(k, row(p.cp), -p.gain);
+          G.add(k, row(p.cn), p.gain);
         } else if (p.kind === 'ind') {
-          if (C) C[k * n + k] -= p.value;
+          if (C) C.add(k, k, -p.value);
         } else if (b) {
           b[k] += p.dc * opts.sourceScale;
         }
@@ -160,27 +190,40 @@ export function stampLinear(
         const t = row(p.to);
         const cp = row(p.cp);
         const cn = row(p.cn);
-        addEntry(G, n, f, cp, p.gm);
-        addEntry(G, n, f, cn, -p.gm);
-        addEntry(G, n, t, cp, -p.gm);
-        addEntry(G, n, t, cn, p.gm);
+        G.add(f, cp, p.gm);
+        G.add(f, cn, -p.gm);
+        G.add(t, cp, -p.gm);
+        G.add(t, cn, p.gm);
         break;
       }
       case 'npn':
       case 'pnp': {
         const bi = layout.internalBase.get(p.name);
-        if (bi !== undefined) stampConductance(G, n, row(p.b), bi, 1 / p.model.rb);
+        if (bi !== undefined) stampConductance(G, row(p.b), bi, 1 / p.model.rb);
         break;
       }
       default:
         break;
     }
   }
-  if (opts.gmin > 0) for (let i = 0; i < layout.voltageCount; i++) G[i * n + i] += opts.gmin;
+  if (opts.gmin > 0) for (let i = 0; i < layout.voltageCount; i++) G.add(i, i, opts.gmin);
 }
 
 /** 1/R, held finite for a zero or absurdly small resistance. */
 export function conductanceOf(r: number): number {
   if (!(Math.abs(r) > 1 / MAX_CONDUCTANCE)) return r < 0 ? -MAX_CONDUCTANCE : MAX_CONDUCTANCE;
   return 1 / r;
+}
+
+/**
+ * The circuit's sparsity pattern: every position its linear parts stamp into G or C, every
+ * position `devices` stamps (Jacobian and capacitances), and the full diagonal. One pattern
+ * serves the DC Newton matrix and the AC matrix alike, so a circuit shape is analysed once.
+ */
+export function circuitPattern(circuit: Circuit, layout: MnaLayout, devices: { collectPositions(sink: StampSink): void }): SparsePattern {
+  const builder = new PatternBuilder(layout.size);
+  const sink: StampSink = { add: (r, c) => builder.add(r, c) };
+  stampLinear(circuit, layout, sink, sink, null, { sourceScale: 0, gmin: 1 });
+  devices.collectPositions(sink);
+  return builder.build();
 }

@@ -3,13 +3,17 @@
  * with the state the Newton iteration keeps per device (the junction voltages it linearised at
  * last time, for step limiting). Stamps each device's companion model: the exact Jacobian plus
  * the equivalent current I0 − J·v0, so one linear solve gives the next Newton iterate.
+ *
+ * Stamps go straight to the slots of the circuit's sparse pattern: each device's positions are
+ * looked up once ({@link DeviceSet.bind}), so a Newton iteration stamps with plain indexed adds.
  */
 import type { Bjt, Circuit, Diode, Mosfet } from '../circuit/types';
 import { bjtParams, evalBjt, type BjtEval, type BjtParams } from '../devices/bjt';
 import { diodeParams, evalDiode, type DiodeEval, type DiodeParams } from '../devices/diode';
 import { limitJunctionStep, limitVoltageStep } from '../devices/junction';
 import { evalMos, mosParams, newMosEval, type MosEval, type MosParams } from '../devices/mos';
-import { addEntry, nodeRow, type MnaLayout } from './mna';
+import type { SparsePattern } from '../numeric/sparse-pattern';
+import { nodeRow, type MnaLayout, type StampSink } from './mna';
 
 /**
  * Largest change of a MOS gate–source (or gate–drain) voltage in one Newton step: 0.5 V plus
@@ -67,6 +71,14 @@ export class DeviceSet {
   readonly diodes: DiodeInstance[] = [];
   /** True until the first stamp after {@link initialGuess}: devices then sit at their guesses. */
   private useGuess = true;
+  /**
+   * Pattern slots of each device's Jacobian entries, −1 for a ground row or column: per bipolar
+   * rows (c, b', e) × columns (b', e, c); per MOS rows (d, s) × columns (g, d, s, b); per diode
+   * rows (a, k) × columns (a, k). Filled by {@link bind}.
+   */
+  private bjtSlots = new Int32Array(0);
+  private mosSlots = new Int32Array(0);
+  private diodeSlots = new Int32Array(0);
 
   constructor(circuit: Circuit, readonly layout: MnaLayout) {
     const t = circuit.options.temp;
@@ -124,19 +136,48 @@ export class DeviceSet {
     this.useGuess = false;
   }
 
+  /** Every position the devices stamp: the Jacobian (Newton) and the capacitances (AC). */
+  collectPositions(sink: StampSink): void {
+    const block = (rows: number[], cols: number[]) => {
+      for (const r of rows) for (const c of cols) sink.add(r, c, 0);
+    };
+    for (const q of this.bjts) block([q.c, q.b, q.e], [q.b, q.e, q.c]);
+    for (const m of this.mos) {
+      block([m.d, m.s], [m.g, m.d, m.s, m.b]);
+      // cgs and cgd: the gate's row, which the drain current does not touch.
+      block([m.g, m.s, m.d], [m.g, m.s, m.d]);
+    }
+    for (const d of this.diodes) block([d.a, d.k], [d.a, d.k]);
+  }
+
+  /** Looks up each device's stamp positions in `pattern` (which must hold {@link collectPositions}). */
+  bind(pattern: SparsePattern): void {
+    const slots = (out: Int32Array, at: number, rows: number[], cols: number[]) => {
+      for (const r of rows) for (const c of cols) out[at++] = r >= 0 && c >= 0 ? pattern.slot(r, c) : -1;
+    };
+    this.bjtSlots = new Int32Array(9 * this.bjts.length);
+    this.bjts.forEach((q, k) => slots(this.bjtSlots, 9 * k, [q.c, q.b, q.e], [q.b, q.e, q.c]));
+    this.mosSlots = new Int32Array(8 * this.mos.length);
+    this.mos.forEach((m, k) => slots(this.mosSlots, 8 * k, [m.d, m.s], [m.g, m.d, m.s, m.b]));
+    this.diodeSlots = new Int32Array(4 * this.diodes.length);
+    this.diodes.forEach((d, k) => slots(this.diodeSlots, 4 * k, [d.a, d.k], [d.a, d.k]));
+  }
+
   /**
    * Evaluates every device at x (junction steps limited when `limit`), stamps the companion
-   * models into A and b, and returns true when any voltage was limited (x is then not yet a
-   * solution of the nonlinear system, whatever the update size says).
+   * models into A (values on the pattern given to {@link bind}) and b, and returns true when any
+   * voltage was limited (x is then not yet a solution of the nonlinear system, whatever the
+   * update size says).
    */
   stamp(x: Float64Array, A: Float64Array, b: Float64Array, limit: boolean): boolean {
-    const n = this.layout.size;
     let limited = false;
     const guess = this.useGuess;
     this.useGuess = false;
     if (guess) limited = this.count > 0;
 
-    for (const q of this.bjts) {
+    const bjtSlots = this.bjtSlots;
+    for (let k = 0; k < this.bjts.length; k++) {
+      const q = this.bjts[k];
       const s = q.p.polarity;
       let vbe = q.vbe;
       let vbc = q.vbc;
@@ -155,12 +196,14 @@ export class DeviceSet {
       // terminal voltages is the mirrored one unchanged (both signs cancel).
       const icEq = s * (ev.ic - ev.dIcDvbe * vbe - ev.dIcDvbc * vbc);
       const ibEq = s * (ev.ib - ev.dIbDvbe * vbe - ev.dIbDvbc * vbc);
-      stampTransistorRow(A, b, n, q.c, q.b, q.e, q.c, ev.dIcDvbe, ev.dIcDvbc, icEq, 1);
-      stampTransistorRow(A, b, n, q.b, q.b, q.e, q.c, ev.dIbDvbe, ev.dIbDvbc, ibEq, 1);
-      stampTransistorRow(A, b, n, q.e, q.b, q.e, q.c, ev.dIcDvbe + ev.dIbDvbe, ev.dIcDvbc + ev.dIbDvbc, icEq + ibEq, -1);
+      const at0 = 9 * k;
+      stampTransistorRow(A, b, bjtSlots, at0, q.c, ev.dIcDvbe, ev.dIcDvbc, icEq, 1);
+      stampTransistorRow(A, b, bjtSlots, at0 + 3, q.b, ev.dIbDvbe, ev.dIbDvbc, ibEq, 1);
+      stampTransistorRow(A, b, bjtSlots, at0 + 6, q.e, ev.dIcDvbe + ev.dIbDvbe, ev.dIcDvbc + ev.dIbDvbc, icEq + ibEq, -1);
     }
 
-    for (const m of this.mos) {
+    for (let k = 0; k < this.mos.length; k++) {
+      const m = this.mos[k];
       const vs = at(x, m.s);
       const vbk = at(x, m.b);
       let vgs = m.vgs;
@@ -190,11 +233,13 @@ export class DeviceSet {
       const vd0 = vg0 - vgd;
       const ev = evalMos(m.p, vg0, vd0, vs, vbk, m.ev);
       const ieq = ev.id - ev.dIdVg * vg0 - ev.dIdVd * vd0 - ev.dIdVs * vs - ev.dIdVb * vbk;
-      stampMosRow(A, b, n, m, m.d, 1, ieq);
-      stampMosRow(A, b, n, m, m.s, -1, ieq);
+      stampMosRow(A, b, this.mosSlots, 8 * k, m, m.d, 1, ieq);
+      stampMosRow(A, b, this.mosSlots, 8 * k + 4, m, m.s, -1, ieq);
     }
 
-    for (const d of this.diodes) {
+    const diodeSlots = this.diodeSlots;
+    for (let k = 0; k < this.diodes.length; k++) {
+      const d = this.diodes[k];
       let vd = d.vd;
       if (!guess) {
         const raw = at(x, d.a) - at(x, d.k);
@@ -204,10 +249,11 @@ export class DeviceSet {
       d.vd = vd;
       const ev = evalDiode(d.p, vd, d.ev);
       const ieq = ev.id - ev.gd * vd;
-      addEntry(A, n, d.a, d.a, ev.gd);
-      addEntry(A, n, d.a, d.k, -ev.gd);
-      addEntry(A, n, d.k, d.a, -ev.gd);
-      addEntry(A, n, d.k, d.k, ev.gd);
+      const at0 = 4 * k;
+      addAt(A, diodeSlots[at0], ev.gd);
+      addAt(A, diodeSlots[at0 + 1], -ev.gd);
+      addAt(A, diodeSlots[at0 + 2], -ev.gd);
+      addAt(A, diodeSlots[at0 + 3], ev.gd);
       if (d.a >= 0) b[d.a] -= ieq;
       if (d.k >= 0) b[d.k] += ieq;
     }
@@ -215,29 +261,33 @@ export class DeviceSet {
   }
 }
 
-/** Stamps ±(drain current) into row r: +1 for the drain, −1 for the source. */
-function stampMosRow(A: Float64Array, b: Float64Array, n: number, m: MosInstance, r: number, sign: 1 | -1, ieq: number): void {
+/** Adds v at a pattern slot (−1: a ground row or column, skipped). */
+function addAt(A: Float64Array, slot: number, v: number): void {
+  if (slot >= 0) A[slot] += v;
+}
+
+/** Stamps ±(drain current) into row r: +1 for the drain, −1 for the source; slots (g, d, s, b) from `at0`. */
+function stampMosRow(A: Float64Array, b: Float64Array, slots: Int32Array, at0: number, m: MosInstance, r: number, sign: 1 | -1, ieq: number): void {
   if (r < 0) return;
   const ev = m.ev;
-  addEntry(A, n, r, m.g, sign * ev.dIdVg);
-  addEntry(A, n, r, m.d, sign * ev.dIdVd);
-  addEntry(A, n, r, m.s, sign * ev.dIdVs);
-  addEntry(A, n, r, m.b, sign * ev.dIdVb);
+  addAt(A, slots[at0], sign * ev.dIdVg);
+  addAt(A, slots[at0 + 1], sign * ev.dIdVd);
+  addAt(A, slots[at0 + 2], sign * ev.dIdVs);
+  addAt(A, slots[at0 + 3], sign * ev.dIdVb);
   b[r] -= sign * ieq;
 }
 
 /**
  * Stamps sign·I into row r, where I = ieq + gBe·(v_b − v_e) + gBc·(v_b − v_c): the current into
- * one transistor terminal linearised in its two junction voltages.
+ * one transistor terminal linearised in its two junction voltages. Slots (b', e, c) from `at0`.
  */
 function stampTransistorRow(
-  A: Float64Array, b: Float64Array, n: number,
-  r: number, rb: number, re: number, rc: number,
-  gBe: number, gBc: number, ieq: number, sign: 1 | -1,
+  A: Float64Array, b: Float64Array, slots: Int32Array, at0: number,
+  r: number, gBe: number, gBc: number, ieq: number, sign: 1 | -1,
 ): void {
   if (r < 0) return;
-  addEntry(A, n, r, rb, sign * (gBe + gBc));
-  addEntry(A, n, r, re, -sign * gBe);
-  addEntry(A, n, r, rc, -sign * gBc);
+  addAt(A, slots[at0], sign * (gBe + gBc));
+  addAt(A, slots[at0 + 1], -sign * gBe);
+  addAt(A, slots[at0 + 2], -sign * gBc);
   b[r] -= sign * ieq;
 }

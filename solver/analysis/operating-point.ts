@@ -41,6 +41,8 @@ interface Attempts {
   /** Rows with the largest last step, for when no node is out of balance. */
   moving: { row: number; update: number }[];
   singularRow: number;
+  /** Where plain Newton's matrix was still numerically singular when it stopped (its steps damped), or −1. */
+  dampedAt: number;
 }
 
 /** Solves the DC operating point of `circuit`. Never throws. */
@@ -65,7 +67,7 @@ export function solveWithWorkspace(ws: NewtonWorkspace, start?: OpStart): Operat
   const gminFinal = Number.isFinite(minG) && minG > 0 ? minG : 0;
   const x = new Float64Array(n);
   let total = 0;
-  const attempts: Attempts = { newtonIterations: 0, unbalanced: [], unsettled: [], moving: [], singularRow: -1 };
+  const attempts: Attempts = { newtonIterations: 0, unbalanced: [], unsettled: [], moving: [], singularRow: -1, dampedAt: -1 };
   const budget = Math.min(TOTAL_ITER_BUDGET, 20 * iterLimit + 1000);
   const stepLimit = Math.min(iterLimit, STEP_ITER_LIMIT);
   /** One bounded Newton run; out of budget counts as not converged. */
@@ -87,6 +89,7 @@ export function solveWithWorkspace(ws: NewtonWorkspace, start?: OpStart): Operat
   let out = newton(iterLimit, watch);
   attempts.newtonIterations = out.iterations;
   attempts.singularRow = out.singularRow;
+  attempts.dampedAt = out.dampedAt ?? -1;
   if (out.converged) return success(ws, x, 'newton', total);
   attempts.unbalanced = unbalancedNodes(ws, layout);
   attempts.unsettled = watch?.unsettled() ?? [];
@@ -209,13 +212,25 @@ function listOf(items: string[]): string {
 
 function failure(ws: NewtonWorkspace, layout: MnaLayout, a: Attempts, iterLimit: number, gminFinal: number): OpFailure {
   const circuit = ws.circuit;
-  if (a.singularRow >= 0) {
+  const singularAt = a.singularRow >= 0 ? a.singularRow : a.dampedAt;
+  if (a.singularRow >= 0 && !ws.topologyOk) {
     const label = layout.rowLabels[a.singularRow] ?? `row ${a.singularRow}`;
-    const name = layout.rowNames[a.singularRow];
     return {
       failed: true,
-      errors: [error('op-singular', locOfRow(circuit, name), `The DC system cannot be solved at ${label}: it has no DC path to ground or sits in a loop of voltage sources or inductors.`,
+      errors: [error('op-singular', locOfRow(circuit, layout.rowNames[a.singularRow]), `The DC system cannot be solved at ${label}: it has no DC path to ground or sits in a loop of voltage sources or inductors.`,
         'give every node a DC path to ground and break loops of voltage sources')],
+    };
+  }
+  if (singularAt >= 0) {
+    // A circuit that passes the topology checks: its matrix lost its precision, which is a
+    // numerical failure and is reported as one, never as a missing path or a source loop.
+    const label = layout.rowLabels[singularAt];
+    const where = label ? ` at ${label}` : '';
+    return {
+      failed: true,
+      errors: [error('op-numerically-singular', locOfRow(circuit, layout.rowNames[singularAt]),
+        `The DC system is numerically singular${where}: its equations lost all precision there (a numerical failure — every node has a DC path to ground and no sources form a loop); damped Newton steps, gmin stepping and source stepping did not get past it.`,
+        'look for part values many orders of magnitude apart (a huge resistance beside a tiny one, an enormous gain), or a long chain of high-gain stages with no bias of their own')],
     };
   }
   const tried = [

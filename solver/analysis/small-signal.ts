@@ -10,40 +10,72 @@
  */
 import type { Circuit } from '../circuit/types';
 import { bjtCpi, bjtSmallSignal } from '../devices/bjt';
-import type { LinearSystem, OperatingPoint } from './engine-api';
-import { buildLayout, stampConductance, stampLinear, type MnaLayout } from './mna';
+import { SparsePattern } from '../numeric/sparse-pattern';
+import type { LinearSystem, OperatingPoint, SparseSystem } from './engine-api';
+import { buildLayout, circuitPattern, PatternValues, stampConductance, stampLinear, type MnaLayout, type StampSink } from './mna';
 import { DeviceSet } from './nonlinear-devices';
 
-/** Builds the small-signal system of `circuit` at `op`. */
+/** Builds the small-signal system of `circuit` at `op`, on the circuit's sparse pattern. */
 export function linearize(circuit: Circuit, op: OperatingPoint): LinearSystem {
   const layout = buildLayout(circuit);
   const n = layout.size;
-  const G = new Float64Array(n * n);
-  const C = new Float64Array(n * n);
+  const devices = new DeviceSet(circuit, layout);
+  const pattern = circuitPattern(circuit, layout, devices);
+  devices.bind(pattern);
+  const G = new PatternValues(pattern);
+  const C = new PatternValues(pattern);
   const minG = Number.isFinite(circuit.options.minG) && circuit.options.minG > 0 ? circuit.options.minG : 0;
   stampLinear(circuit, layout, G, C, null, { sourceScale: 0, gmin: minG });
 
   const x = op.x.length === n ? op.x : new Float64Array(n);
-  const devices = new DeviceSet(circuit, layout);
   devices.stateFrom(x);
   // The companion stamp without limiting is exactly the Jacobian at x; its current part is dropped.
-  devices.stamp(x, G, new Float64Array(n), false);
-  stampDeviceCapacitances(devices, C, n);
-  return { size: n, nodeIndex: layout.nodeIndex, branchIndex: layout.branchIndex, G, C, sources: sourceMap(circuit, layout) };
+  devices.stamp(x, G.values, new Float64Array(n), false);
+  stampDeviceCapacitances(devices, C);
+  return linearSystem(layout, sourceMap(circuit, layout), { pattern, g: G.values, c: C.values });
 }
 
-function stampDeviceCapacitances(devices: DeviceSet, C: Float64Array, n: number): void {
+/**
+ * A LinearSystem over sparse storage whose dense `G` and `C` are built on first access and kept
+ * (other analyses may want dense matrices; the AC solver never asks).
+ */
+export function linearSystem(layout: Pick<MnaLayout, 'size' | 'nodeIndex' | 'branchIndex'>, sources: LinearSystem['sources'], sparse: SparseSystem): LinearSystem {
+  let G: Float64Array | undefined;
+  let C: Float64Array | undefined;
+  return {
+    size: layout.size,
+    nodeIndex: layout.nodeIndex,
+    branchIndex: layout.branchIndex,
+    sources,
+    sparse,
+    get G(): Float64Array {
+      return (G ??= sparse.pattern.toDense(sparse.g));
+    },
+    get C(): Float64Array {
+      return (C ??= sparse.pattern.toDense(sparse.c));
+    },
+  };
+}
+
+/** The pattern and values a system is solved on: its own sparse storage, or derived from dense G and C. */
+export function sparseOf(system: LinearSystem): SparseSystem {
+  if (system.sparse) return system.sparse;
+  const pattern = SparsePattern.fromDense(system.size, system.G, system.C);
+  return { pattern, g: pattern.gather(system.G), c: pattern.gather(system.C) };
+}
+
+function stampDeviceCapacitances(devices: DeviceSet, C: StampSink): void {
   for (const q of devices.bjts) {
     // q.ev holds the evaluation at the operating point from the stamp just made.
     const cpi = bjtCpi(q.p, bjtSmallSignal(q.ev).gm);
-    stampConductance(C, n, q.b, q.e, cpi);
-    stampConductance(C, n, q.b, q.c, q.p.cjc);
+    stampConductance(C, q.b, q.e, cpi);
+    stampConductance(C, q.b, q.c, q.p.cjc);
   }
   for (const m of devices.mos) {
-    stampConductance(C, n, m.g, m.s, m.p.cgs);
-    stampConductance(C, n, m.g, m.d, m.p.cgd);
+    stampConductance(C, m.g, m.s, m.p.cgs);
+    stampConductance(C, m.g, m.d, m.p.cgd);
   }
-  for (const d of devices.diodes) stampConductance(C, n, d.a, d.k, d.p.cj);
+  for (const d of devices.diodes) stampConductance(C, d.a, d.k, d.p.cj);
 }
 
 function sourceMap(circuit: Circuit, layout: MnaLayout): LinearSystem['sources'] {

@@ -26,8 +26,11 @@ export interface MismatchRequest { kind: 'mismatch'; runs: number; seed: number;
 /** `analyze sensitivity`: (∂F/F)/(∂x/x) of every figure to every part value and device parameter. */
 export interface SensitivityRequest { kind: 'sensitivity'; loc: SourceLoc }
 
-/** `analyze poles` (later issue). */
-export interface PolesRequest { kind: 'poles'; loc: SourceLoc }
+/**
+ * `analyze poles [out NODE]`: the poles of the linearised circuit, and the zeros of the ports'
+ * adm or, without ports, of the transfer from the first source with an `ac=` to `out`.
+ */
+export interface PolesRequest { kind: 'poles'; out?: string; loc: SourceLoc }
 
 export type AnalysisRequest = AcRequest | TransferRequest | VaryRequest | TempRequest | NoiseRequest | MismatchRequest | SensitivityRequest | PolesRequest;
 

@@ -24,13 +24,15 @@ export const DIAGNOSTIC_CODES = [
   'single-connection', 'no-dc-path', 'vsource-loop',
   // Requests (analyze, ports, measure, check) resolved against the circuit.
   'unknown-analysis', 'duplicate-analysis', 'bad-ac-sweep', 'bad-transfer', 'unknown-name', 'unknown-node',
-  'not-a-source', 'wrong-kind', 'no-ports', 'reserved-name',
+  'not-a-source', 'wrong-kind', 'no-ports', 'reserved-name', 'bad-noise-request',
   // The DC operating point and the device regions.
-  'op-no-convergence', 'op-singular', 'op-non-finite',
+  'op-no-convergence', 'op-singular', 'op-numerically-singular', 'op-non-finite',
   'bjt-saturated', 'bjt-reverse', 'bjt-cutoff', 'mos-triode', 'mos-cutoff',
   // Analyses.
   'analysis-not-available', 'ports-singular', 'ports-no-response', 'ports-current-drive', 'cmrr-unbounded',
   'no-ac-source', 'transfer-point', 'sweep-value-failed', 'sweep-too-large',
+  'noise-no-gain', 'noise-singular',
+  'poles-too-large', 'poles-singular', 'poles-no-transfer', 'poles-out-ignored',
   // Measures and checks evaluated over the results.
   'measure-error',
   // The solver itself.

@@ -65,6 +65,50 @@ export interface TransferResult {
   curves: Record<string, number[]>;
 }
 
+/**
+ * `analyze noise`: densities over the noise sweep. `out_density` is the total noise at the output
+ * (V/√Hz); `in_density` is out_density/|H|, H the transfer from the `in` source (1 V or 1 A, the
+ * other sources zeroed) to the output — V/√Hz for a voltage source, A/√Hz for a current source;
+ * 0 where H is 0 (a warning names those frequencies). `contributors.<part>` is each noisy part's
+ * share of the output density, so Σ contributors² = out_density² at every frequency.
+ */
+export interface NoiseResult {
+  /** The output node. */
+  out: string;
+  /** The reference node when one was written (`out outa outb`): the output is then v(out) − v(out_ref). */
+  out_ref?: string;
+  /** The input source. */
+  in: string;
+  freq_hz: number[];
+  out_density: number[];
+  in_density: number[];
+  contributors: Record<string, number[]>;
+}
+
+/**
+ * One pole or zero: the complex frequency s/2π in Hz. `q` = |s|/(−2·Re s) is given for a
+ * complex one only (a conjugate pair shares it; negative in the right half-plane).
+ */
+export interface PoleZero {
+  re: number;
+  im: number;
+  q?: number;
+}
+
+/**
+ * `analyze poles`: the natural frequencies of the circuit linearised at its operating point,
+ * every independent source zeroed, and the zeros of the ports' adm (or of the transfer to the
+ * `out` node), each list sorted by |s|, a conjugate pair with im > 0 first.
+ */
+export interface PolesResult {
+  poles_hz: PoleZero[];
+  zeros_hz: PoleZero[];
+  /** Whose zeros `zeros_hz` holds (`adm`, or `v(out)/vin`); absent when none were asked for. */
+  zeros_of?: string;
+  /** The definitions used, in words, for reports. */
+  conventions: string;
+}
+
 export interface CheckResult {
   text: string;
   pass: boolean;
@@ -83,6 +127,8 @@ export interface SolveResult {
   ports?: PortsResult;
   ac?: AcResult;
   transfer?: TransferResult;
+  noise?: NoiseResult;
+  poles?: PolesResult;
   vary?: VaryResult;
   temp?: TempResult;
   mismatch?: MismatchResult;
@@ -103,6 +149,8 @@ export interface SweepRun {
   op?: OpResult;
   ports?: PortsResult;
   ac?: AcResult;
+  noise?: NoiseResult;
+  poles?: PolesResult;
   measures: Record<string, number>;
   checks: CheckResult[];
   errors?: { line: number; col: number; message: string }[];

@@ -50,6 +50,11 @@ export interface BjtModel {
   eg: number;
   /** Temperature exponent for IS(T). */
   pt: number;
+  /**
+   * Flicker (1/f) noise corner in Hz (model key `flicker_corner`): the 1/f part of the device's
+   * noise equals its white part at this frequency. Absent or 0: no flicker noise.
+   */
+  flickerCorner?: number;
 }
 
 export interface Bjt extends PartBase {
@@ -77,6 +82,11 @@ export interface MosModel {
   phi: number;
   cgs: number;
   cgd: number;
+  /**
+   * Flicker (1/f) noise corner in Hz (model key `flicker_corner`): the 1/f part of the device's
+   * noise equals its white part at this frequency. Absent or 0: no flicker noise.
+   */
+  flickerCorner?: number;
 }
 
 export interface Mosfet extends PartBase {
@@ -99,6 +109,11 @@ export interface DiodeModel {
   cj: number;
   eg: number;
   pt: number;
+  /**
+   * Flicker (1/f) noise corner in Hz (model key `flicker_corner`): the 1/f part of the device's
+   * noise equals its white part at this frequency. Absent or 0: no flicker noise.
+   */
+  flickerCorner?: number;
 }
 
 export interface Diode extends PartBase { kind: 'diode'; a: string; k: string; model: DiodeModel; area: number }

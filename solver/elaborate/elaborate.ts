@@ -13,9 +13,12 @@ import type { DiagnosticBag, DiagnosticCode, SourceLoc } from '../circuit/diagno
 import { buildPart, resolvePins, type PartContext, type ResolvedModel } from './elaborate-part';
 import { evaluateModel } from './elaborate-model';
 import { DEFAULT_OPTIONS, GROUND, partNodes, type Circuit, type Part, type PartKind } from '../circuit/types';
+import { MAX_UNKNOWNS, partExtraUnknowns } from '../circuit/capacity';
 
 /** Flattened parts beyond this are refused: a netlist this big is a runaway block expansion. */
 export const MAX_PARTS = 100_000;
+/** A circuit over the engine's MAX_UNKNOWNS is counted on up to this many unknowns (for the error), then elaboration stops. */
+export const UNKNOWNS_COUNTED = 10 * MAX_UNKNOWNS;
 /** Deepest chain of block instances. */
 export const MAX_INSTANCE_DEPTH = 64;
 
@@ -100,6 +103,12 @@ interface Sink {
 class Elaborator {
   private partCount = 0;
   private tooLarge = false;
+  /** MNA unknowns of the main circuit so far (nodes, internal nodes, branch currents). */
+  private unknowns = 0;
+  /** Where the main circuit first went over MAX_UNKNOWNS; from then on it is only counted. */
+  private overCapacity: { frame: Frame; loc: SourceLoc } | undefined;
+  /** The top-level line being elaborated (a part, or the instance whose blocks are expanding). */
+  private topLine: { frame: Frame; loc: SourceLoc } | undefined;
   private readonly instantiated = new Set<BlockDef>();
   private readonly firstFrame = new Map<BlockDef, Frame>();
   private readonly fileFrames = new Map<FileUnit, Frame>();
@@ -264,6 +273,7 @@ class Elaborator {
       }
       names.add(name);
       if (sink === this.mainSink) this.attemptedParts.add(frame.prefix + name);
+      if (sink === this.mainSink && frame.prefix === '' && !frame.file.origin) this.topLine = { frame, loc: stmt.loc };
       this.elaboratePart(frame, stmt, sink);
     }
   }
@@ -325,11 +335,42 @@ class Elaborator {
   private addPart(frame: Frame, part: Part, sink: Sink): void {
     if (++this.partCount > MAX_PARTS) {
       this.tooLarge = true;
-      this.report(frame, 'error', 'too-large', part.loc, `The circuit has more than ${MAX_PARTS} parts once its blocks are expanded.`, 'check for a block that instantiates far more copies than intended');
+      // Over the unknowns' cap already: that error says it (with the count so far).
+      if (!this.overCapacity) this.report(frame, 'error', 'too-large', part.loc, `The circuit has more than ${MAX_PARTS} parts once its blocks are expanded.`, 'check for a block that instantiates far more copies than intended');
       return;
     }
-    sink.parts.push(part);
-    for (const n of partNodes(part)) if (n !== GROUND) sink.nodes.add(n);
+    if (sink !== this.mainSink) {
+      sink.parts.push(part);
+      for (const n of partNodes(part)) if (n !== GROUND) sink.nodes.add(n);
+      return;
+    }
+    // The main circuit's unknowns, counted as it grows. Past the engine's cap the parts are no
+    // longer kept (the circuit is refused) but still counted, up to UNKNOWNS_COUNTED, so the
+    // error can give the size; then elaboration stops.
+    for (const n of partNodes(part)) {
+      if (n === GROUND || sink.nodes.has(n)) continue;
+      sink.nodes.add(n);
+      this.unknowns++;
+    }
+    this.unknowns += partExtraUnknowns(part);
+    // The error points at the top-level line that crossed the cap: the instance, not a part deep inside it.
+    if (this.unknowns > MAX_UNKNOWNS && !this.overCapacity) this.overCapacity = this.topLine ?? { frame, loc: part.loc };
+    if (!this.overCapacity) {
+      sink.parts.push(part);
+      return;
+    }
+    // A part left out: its nodes' connections are incomplete, so topology checks stay quiet about them.
+    for (const n of partNodes(part)) this.brokenNodes.add(n);
+    if (this.unknowns > UNKNOWNS_COUNTED) this.tooLarge = true;
+  }
+
+  /** The error for a main circuit over MAX_UNKNOWNS, at the part that crossed it. */
+  reportCapacity(): void {
+    if (!this.overCapacity) return;
+    const count = this.unknowns.toLocaleString('en-US');
+    this.report(this.overCapacity.frame, 'error', 'too-large', this.overCapacity.loc,
+      `The circuit has ${this.tooLarge ? `more than ${Math.min(this.unknowns, UNKNOWNS_COUNTED).toLocaleString('en-US')}` : count} unknowns (node voltages and branch currents) once its blocks are expanded; the engine holds at most ${MAX_UNKNOWNS.toLocaleString('en-US')}.`,
+      'check for a block that instantiates far more copies than intended, or solve a smaller part of the circuit');
   }
 
   /** Expands one block instance. */
@@ -472,6 +513,7 @@ export function elaborate(file: FileUnit, bag: DiagnosticBag, options: Elaborate
   e.mainSink = sink;
   const circuitOptions = e.options_(file, top);
   e.elaborateBody(top, sink);
+  e.reportCapacity();
   e.checkUnusedBlocks(file);
   const blocks = [...file.blocks, ...(options.usedBlocks.get(file)?.values() ?? [])];
   return {

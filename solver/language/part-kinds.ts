@@ -86,6 +86,7 @@ export const MODEL_KEYS: Record<ModelFamily, Record<string, ModelKeySpec>> = {
     tauf: { field: 'tauf', unit: 's', what: 'forward transit time', range: 'nonnegative' },
     eg: { field: 'eg', unit: 'V', what: 'band gap (eV)', range: 'positive' },
     pt: { field: 'pt', unit: '', what: 'saturation-current temperature exponent', range: 'any' },
+    flicker_corner: { field: 'flickerCorner', unit: 'Hz', what: 'flicker-noise corner frequency', range: 'nonnegative' },
   },
   mos: {
     ucox: { field: 'ucox', unit: '', what: 'process transconductance µ·Cox (A/V²)', range: 'positive' },
@@ -95,6 +96,7 @@ export const MODEL_KEYS: Record<ModelFamily, Record<string, ModelKeySpec>> = {
     phi: { field: 'phi', unit: 'V', what: 'surface potential 2φF', range: 'positive' },
     cgs: { field: 'cgs', unit: 'F', what: 'gate-source capacitance', range: 'nonnegative' },
     cgd: { field: 'cgd', unit: 'F', what: 'gate-drain capacitance', range: 'nonnegative' },
+    flicker_corner: { field: 'flickerCorner', unit: 'Hz', what: 'flicker-noise corner frequency', range: 'nonnegative' },
   },
   diode: {
     is: { field: 'is', unit: 'A', what: 'saturation current', range: 'positive' },
@@ -102,6 +104,7 @@ export const MODEL_KEYS: Record<ModelFamily, Record<string, ModelKeySpec>> = {
     cj: { field: 'cj', unit: 'F', what: 'junction capacitance', range: 'nonnegative' },
     eg: { field: 'eg', unit: 'V', what: 'band gap (eV)', range: 'positive' },
     pt: { field: 'pt', unit: '', what: 'saturation-current temperature exponent', range: 'any' },
+    flicker_corner: { field: 'flickerCorner', unit: 'Hz', what: 'flicker-noise corner frequency', range: 'nonnegative' },
   },
 };
 

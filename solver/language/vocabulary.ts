@@ -54,10 +54,10 @@ export const ANALYSIS_SPECS: readonly AnalysisSpec[] = [
   { kind: 'transfer', syntax: 'analyze transfer va from -100m to 100m step 1m', detail: 'SOURCE from -100m to 100m step 1m', doc: 'DC transfer curve: one source\'s DC value swept', once: true },
   { kind: 'vary', syntax: 'analyze vary rt over 1k 10k 100k', detail: 'PARAM over … | from … to … per decade N', doc: 're-runs the other analyses per parameter value' },
   { kind: 'temp', syntax: 'analyze temp over -40 27 125', detail: 'over -40 27 125', doc: 're-runs the other analyses per temperature (°C)' },
-  { kind: 'noise', syntax: 'analyze noise out outa in va from 10 Hz to 10 MHz per decade 10', detail: 'out NODE in SOURCE from … to … per decade N', doc: 'output and input-referred noise density' },
+  { kind: 'noise', syntax: 'analyze noise out outa in va from 10 Hz to 10 MHz per decade 10', detail: 'out NODE [REF] in SOURCE from … to … per decade N', doc: 'output and input-referred noise density, and each part\'s share of it', once: true },
   { kind: 'mismatch', syntax: 'analyze mismatch runs 500 seed 7 beta 5% is 2% res 0.5%', detail: 'runs 500 seed 7 beta 5% is 2% res 0.5%', doc: 'Monte Carlo spreads of the ports figures and measures' },
   { kind: 'sensitivity', syntax: 'analyze sensitivity', detail: 'what moves each figure most', doc: 'normalised sensitivities of the ports figures and measures to every part value and device parameter', once: true },
-  { kind: 'poles', syntax: 'analyze poles', detail: 'poles and zeros', doc: 'natural frequencies of the linearised circuit' },
+  { kind: 'poles', syntax: 'analyze poles', detail: '[out NODE]', doc: 'natural frequencies of the linearised circuit (sources zeroed) and the zeros of its transfer', once: true },
 ];
 
 /** Mismatch keys: what each 1-sigma spread of `analyze mismatch` applies to. */
@@ -175,6 +175,12 @@ export const FUNCTIONS: readonly FunctionSpec[] = [
   { name: 'zin', arg: 'source', unit: OHM, doc: 'impedance seen by a source', names: 1, optional: 'frequency' },
   { name: 'zout', arg: 'node', unit: OHM, doc: 'impedance from a node to ground', names: 1, optional: 'frequency' },
   { name: 'ac', arg: 'node', unit: 'V', doc: 'small-signal curve of a node', names: 2 },
+  { name: 'noise_out', arg: 'value', unit: 'V/√Hz', doc: 'noise_out(f): output noise density at f (analyze noise)', names: 0 },
+  { name: 'noise_in', arg: 'value', unit: 'V/√Hz', doc: 'noise_in(f): input-referred noise density at f (A/√Hz for a current-source input)', names: 0 },
+  { name: 'noise_out_rms', arg: 'value', unit: 'V', doc: 'rms output noise over the noise sweep, or over a band: noise_out_rms(f1, f2)', names: 0 },
+  { name: 'noise_in_rms', arg: 'value', unit: 'V', doc: 'rms input-referred noise over the noise sweep, or over a band: noise_in_rms(f1, f2) (A for a current-source input)', names: 0 },
+  { name: 'pole', arg: 'value', unit: 'Hz', doc: 'pole(k): |s|/2π of the k-th pole from the slowest, a conjugate pair counted once (analyze poles)', names: 0 },
+  { name: 'zero', arg: 'value', unit: 'Hz', doc: 'zero(k): |s|/2π of the k-th zero from the slowest, a conjugate pair counted once (analyze poles)', names: 0 },
   { name: 'db', arg: 'value', unit: 'dB', doc: '20·log10 of a magnitude', names: 0 },
   { name: 'mag', arg: 'value', unit: '', doc: 'magnitude', names: 0 },
   { name: 'phase', arg: 'value', unit: '°', doc: 'phase in degrees', names: 0 },

@@ -17,6 +17,8 @@ import { inputImpedance, outputImpedance } from './impedance';
 import { FollowOnError, MeasureError, didYouMean } from './measure-error';
 import { measureMath } from './math';
 import { DEVICE_QUANTITIES, deviceQuantity, nodeVoltage, partCurrent } from './quantities';
+import { noiseFunctions, type NoiseMeasureData } from './noise-measures';
+import { poleFunctions, type PolesMeasureData } from './pole-measures';
 
 /** Everything a measure can read. Absent members make the functions that need them report so. */
 export interface MeasureContext {
@@ -28,6 +30,10 @@ export interface MeasureContext {
   ac?: { freqHz: number[]; portsCurves?: { adm: Curve; acm: Curve; cmrr: Curve }; solutions: AcSolution[] };
   /** The linearised circuit, for zin and zout. */
   linear?: { system: LinearSystem; solver: AcSolver };
+  /** The noise sweep: densities for noise_out, noise_in and their rms over a band. */
+  noise?: NoiseMeasureData;
+  /** The poles and zeros, for pole(k) and zero(k). */
+  poles?: PolesMeasureData;
   /** Requests written but unusable, already reported (`'ac'`, `'ports'`): who needs them stays silent. */
   failed?: ReadonlySet<string>;
 }
@@ -157,6 +163,8 @@ export function measureFunctions(ctx: MeasureContext): Record<string, (...args: 
       return fromPhasor(outputImpedance(system, solver, args[0], f));
     },
   };
+  Object.assign(table, noiseFunctions(ctx.noise, ctx.failed));
+  Object.assign(table, poleFunctions(ctx.poles, ctx.failed));
   for (const q of DEVICE_QUANTITIES) {
     table[q] = (...args) => {
       if (args.length !== 1) throw new MeasureError(`${q}() takes one device name.`, `write ${q}(q1)`);

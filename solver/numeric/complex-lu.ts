@@ -10,9 +10,10 @@ import { scratch, SINGULAR_PIVOT } from './dense-lu';
 /**
  * Factors the n×n complex matrix (re, im) in place. Pivot choice by |re| + |im| (as LAPACK's
  * izamax does): within √2 of the largest modulus, and it cannot underflow.
- * Returns -1 on success, or the step at which the remaining column is zero.
+ * Returns -1 on success, or the step at which the remaining column is zero (its largest candidate
+ * below `floor`; see luFactor).
  */
-export function complexLuFactor(re: Float64Array, im: Float64Array, n: number, pivots: Int32Array): number {
+export function complexLuFactor(re: Float64Array, im: Float64Array, n: number, pivots: Int32Array, floor = SINGULAR_PIVOT): number {
   for (let k = 0; k < n; k++) {
     let p = k;
     let best = Math.abs(re[k * n + k]) + Math.abs(im[k * n + k]);
@@ -24,7 +25,7 @@ export function complexLuFactor(re: Float64Array, im: Float64Array, n: number, p
       }
     }
     pivots[k] = p;
-    if (!(best >= SINGULAR_PIVOT)) return k; // also catches NaN
+    if (!(best >= floor)) return k; // also catches NaN
     const rk = k * n;
     if (p !== k) {
       const rp = p * n;

@@ -19,9 +19,11 @@ export function scratch(n: number): Int32Array {
 
 /**
  * Factors `a` (n×n, row-major) into L·U in place: U on and above the diagonal, the unit-lower L
- * below it. Returns -1 on success, or the step (row) at which no usable pivot was found.
+ * below it. Returns -1 on success, or the step (row) at which no usable pivot was found: the
+ * largest candidate below `floor` (an equilibrated matrix passes a floor relative to its unit
+ * column scale; the default only refuses exact zeros and NaN).
  */
-export function luFactor(a: Float64Array, n: number, pivots: Int32Array): number {
+export function luFactor(a: Float64Array, n: number, pivots: Int32Array, floor = SINGULAR_PIVOT): number {
   for (let k = 0; k < n; k++) {
     // Partial pivoting: the largest magnitude in column k at or below the diagonal.
     let p = k;
@@ -34,7 +36,7 @@ export function luFactor(a: Float64Array, n: number, pivots: Int32Array): number
       }
     }
     pivots[k] = p;
-    if (!(best >= SINGULAR_PIVOT)) return k; // also catches NaN
+    if (!(best >= floor)) return k; // also catches NaN
     const rk = k * n;
     if (p !== k) {
       const rp = p * n;
@@ -86,6 +88,32 @@ export function luSolve(lu: Float64Array, n: number, pivots: Int32Array, b: Floa
     let s = b[i];
     for (let j = i + 1; j < n; j++) s -= lu[ri + j] * b[j];
     b[i] = s / lu[ri + i];
+  }
+}
+
+/**
+ * Solves Aᵀ·y = b in place in `b` with the output of {@link luFactor} for A: with P·A = L·U,
+ * Aᵀ = Uᵀ·Lᵀ·P, so forward through Uᵀ, back through Lᵀ (unit diagonal), then the row swaps
+ * undone in reverse order.
+ */
+export function luSolveTransposed(lu: Float64Array, n: number, pivots: Int32Array, b: Float64Array): void {
+  for (let i = 0; i < n; i++) {
+    let s = b[i];
+    for (let j = 0; j < i; j++) s -= lu[j * n + i] * b[j];
+    b[i] = s / lu[i * n + i];
+  }
+  for (let i = n - 1; i >= 0; i--) {
+    let s = b[i];
+    for (let j = i + 1; j < n; j++) s -= lu[j * n + i] * b[j];
+    b[i] = s;
+  }
+  for (let k = n - 1; k >= 0; k--) {
+    const p = pivots[k];
+    if (p !== k) {
+      const t = b[k];
+      b[k] = b[p];
+      b[p] = t;
+    }
   }
 }
 

@@ -6,6 +6,7 @@ import fc from 'fast-check';
 import { complex, lusolve, matrix, transpose, type Complex, type Matrix as MathMatrix } from 'mathjs';
 import { LuDecomposition, Matrix } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
+import { maxNormRelativeError } from '../testing/nearly-equal';
 import { complexLuFactor, complexLuSolve, complexLuSolveTransposed } from './complex-lu';
 import { DenseRealLu, luFactor } from './dense-lu';
 
@@ -14,16 +15,6 @@ const entries = (n: number) => fc.array(fc.double({ min: -10, max: 10, noNaN: tr
 // shrunk-to-tiny entries would test its rounding rather than ours.
 const vec = (n: number) => fc.array(fc.double({ min: 1, max: 10, noNaN: true }), { minLength: n, maxLength: n });
 
-/** Max-norm relative difference (no squares, so tiny right-hand sides do not underflow). */
-function relErr(a: ArrayLike<number>, b: ArrayLike<number>): number {
-  let num = 0;
-  let den = 0;
-  for (let i = 0; i < a.length; i++) {
-    num = Math.max(num, Math.abs(a[i] - b[i]));
-    den = Math.max(den, Math.abs(b[i]));
-  }
-  return den === 0 ? num : num / den;
-}
 
 /** Size, entries and right-hand sides (real and imaginary); the tests make the diagonal dominant so the systems are well conditioned. */
 const sized = fc.integer({ min: 1, max: 12 }).chain((n) => fc.tuple(fc.constant(n), entries(n), vec(n), entries(n), vec(n)));
@@ -39,7 +30,7 @@ describe('dense real LU', () => {
         expect(lu.factor(A)).toBe(true);
         const x = Float64Array.from(b);
         lu.solve(x);
-        expect(relErr(x, expected)).toBeLessThan(1e-9);
+        expect(maxNormRelativeError(x, expected)).toBeLessThan(1e-9);
       }),
       { numRuns: 300, seed: 1 },
     );
@@ -81,7 +72,7 @@ describe('dense complex LU', () => {
           ours.push(xr[i], xi[i]);
           theirs.push(c.re, c.im);
         }
-        expect(relErr(ours, theirs)).toBeLessThan(1e-9);
+        expect(maxNormRelativeError(ours, theirs)).toBeLessThan(1e-9);
       }),
       { numRuns: 300, seed: 2 },
     );
@@ -116,7 +107,7 @@ describe('dense complex LU', () => {
           ours.push(yr[i], yi[i]);
           theirs.push(c.re, c.im);
         }
-        expect(relErr(ours, theirs)).toBeLessThan(1e-9);
+        expect(maxNormRelativeError(ours, theirs)).toBeLessThan(1e-9);
       }),
       { numRuns: 300, seed: 3 },
     );

@@ -246,6 +246,16 @@ export function parseAnalyze(ctx: RequestContext, s: TokenStmt): AnalysisRequest
       const refNode = outRef ? ctx.node(outRef.text, outRef.loc) : undefined;
       const inSrc = ctx.source(input.text, input.loc, '`analyze noise`');
       if (!outNode || !inSrc || (outRef && !refNode)) break;
+      if (refNode === outNode) {
+        ctx.error('bad-noise-request', outRef!.loc, `analyze noise: the reference node is the output node \`${outNode}\`, so the output would be 0.`, 'write `out NODE` alone, or `out NODE REF` with another node');
+        return undefined;
+      }
+      // The same grid, and the same limit, as the ac sweep.
+      const points = Math.log10(d.to / d.from) * d.perDecade + 1;
+      if (points > MAX_AC_POINTS) {
+        ctx.error('bad-noise-request', loc, `analyze noise: the sweep would have ${Math.round(points)} points (at most ${MAX_AC_POINTS}).`, 'use fewer points per decade or a narrower range');
+        return undefined;
+      }
       result = { kind: 'noise', out: outNode, ...(refNode ? { outRef: refNode } : {}), input: inSrc, fromHz: d.from, toHz: d.to, perDecade: d.perDecade, loc };
       break;
     }
@@ -292,9 +302,18 @@ export function parseAnalyze(ctx: RequestContext, s: TokenStmt): AnalysisRequest
     case 'sensitivity':
       result = { kind: 'sensitivity', loc };
       break;
-    case 'poles':
-      result = { kind: 'poles', loc };
+    case 'poles': {
+      if (!c.peek()) {
+        result = { kind: 'poles', loc };
+        break;
+      }
+      if (!c.keyword('out')) break;
+      const out = c.name('the output node');
+      const outNode = out ? ctx.node(out.text, out.loc, false) : undefined;
+      if (outNode) result = { kind: 'poles', out: outNode, loc };
+      else c.ok = false;
       break;
+    }
   }
   if (c.ok) c.done();
   return c.ok ? result : undefined;

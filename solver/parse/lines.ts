@@ -66,7 +66,9 @@ export function splitLogicalLines(text: string): LogicalLine[] {
     let raw = physical[n];
     const hash = commentStart(raw);
     if (hash >= 0) raw = raw.slice(0, hash);
-    const trimmedEnd = raw.replace(/\s+$/, '');
+    // trimEnd, not replace(/\s+$/): the regex retries from every space of a long run that is
+    // followed by more text, which is quadratic in the run (a 128k-space line took 20 s).
+    const trimmedEnd = raw.trimEnd();
     const continues = trimmedEnd.endsWith('\\');
     const body = continues ? trimmedEnd.slice(0, -1) + ' ' : raw;
     segments.push({ start: buffer.length, line: n + 1, col: 1 });

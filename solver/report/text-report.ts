@@ -6,6 +6,8 @@ import type { Diagnostic } from '../circuit/diagnostic';
 import type { BjtOp, ComplexFigure, DeviceOp, DiodeOp, MosOp, SolveResult } from '../circuit/result';
 import { DEVICE_FIELDS } from '../language/vocabulary';
 import { formatDb, formatDeg, formatFigure, formatPlain, formatSi } from './si-format';
+import { noiseSection } from './noise-table';
+import { polesSection } from './poles-table';
 import { sweepSections } from './sweep-table';
 
 /** The caution every report carries (design.md: "Cautions the product states"). */
@@ -122,6 +124,18 @@ export function formatReport(result: SolveResult): string {
     const x = result.transfer.x;
     const span = x.length ? `${formatPlain(x[0])} to ${formatPlain(x[x.length - 1])}, ${x.length} points` : 'no points';
     lines.push(...section('Transfer', [`  ${result.transfer.source} from ${span}; curves: ${Object.keys(result.transfer.curves).join(', ')}`]));
+  }
+
+  const noise = noiseSection(result);
+  if (noise) {
+    const spot = noise.contributors.length > 1 ? ['', `  ${noise.spot}`, ...table(noise.contributors[0], noise.contributors.slice(1), '    ')] : [];
+    lines.push(...section(noise.title, [...table(noise.densities[0], noise.densities.slice(1)), `  ${noise.rms}`, ...spot]));
+  }
+
+  const poles = polesSection(result);
+  if (poles) {
+    lines.push(...section(poles.title, [...table(poles.rows[0], poles.rows.slice(1)), ...poles.notes.map((n) => `  ${n}`)]));
+    if (result.poles) lines.push(...wrap(result.poles.conventions, 100, '  '));
   }
 
   for (const sweep of sweepSections(result)) lines.push(...section(sweep.title, table(sweep.rows[0], sweep.rows.slice(1))));

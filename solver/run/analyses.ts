@@ -5,15 +5,19 @@
  */
 import type { AnalysisRequest } from '../circuit/analyses';
 import { diagnostic, type Diagnostic } from '../circuit/diagnostic';
-import type { AcResult, TransferResult } from '../circuit/result';
+import type { AcResult, NoiseResult, PolesResult, TransferResult } from '../circuit/result';
 import { runAc } from './ac';
 import type { AnalysisRunner } from './analysis-run';
+import { runNoise } from './noise';
+import { runPoles } from './poles';
 import { runTransfer } from './transfer';
 
 /** The result member each running analysis fills. */
 export interface AnalysisMembers {
   ac: AcResult;
   transfer: TransferResult;
+  noise: NoiseResult;
+  poles: PolesResult;
 }
 
 export type RunningKind = keyof AnalysisMembers;
@@ -22,6 +26,8 @@ export type RunningKind = keyof AnalysisMembers;
 export const ANALYSIS_RUNNERS: { readonly [K in RunningKind]: AnalysisRunner<K, AnalysisMembers[K]> } = {
   ac: runAc,
   transfer: runTransfer,
+  noise: runNoise,
+  poles: runPoles,
 };
 
 /** The kinds that run, in table order. */

@@ -25,8 +25,8 @@ export interface AnalysisOutcome<Member> {
   /** The result member (absent when the analysis could not produce one; its diagnostics say why). */
   member?: Member;
   diagnostics: Diagnostic[];
-  /** What the analysis offers measures (`ac` offers its sweep to `ac(n)`, `corner`, …). */
-  measures?: Partial<Pick<MeasureContext, 'ac'>>;
+  /** What the analysis offers measures (`ac` offers its sweep to `ac(n)`, `corner`, …; `noise` its densities; `poles` its lists). */
+  measures?: Partial<Pick<MeasureContext, 'ac' | 'noise' | 'poles'>>;
 }
 
 /** The request of one analysis kind. */

@@ -69,13 +69,15 @@ function scalar(f: ComplexFigure): number {
   return f.im === 0 ? f.re : f.mag;
 }
 
-/** What each run solves: no curve or noise analyses unless a measure reads a curve or a noise figure. */
+/** What each run solves: no curve, noise or poles analyses unless a measure reads a curve, a noise figure or a pole. */
 export function perRunRequests(requests: Requests): Requests {
   const expressions = [...requests.measures.map((m) => m.expr), ...requests.checks.flatMap((c) => [c.lhs, c.rhs])];
   const readsCurves = expressions.some((e) => /\b(ac|at|corner|unity|margin)\s*\(/.test(e));
   // The noise sweep likewise, only for a measure or check that reads noise_out, noise_in_rms, ….
   const readsNoise = expressions.some((e) => /\bnoise_(out|in)(_rms)?\s*\(/.test(e));
-  return { ...requests, analyses: requests.analyses.filter((a) => (readsCurves && a.kind === 'ac') || (readsNoise && a.kind === 'noise')) };
+  // And the poles, for a pole(k) or zero(k).
+  const readsPoles = expressions.some((e) => /\b(pole|zero)\s*\(/.test(e));
+  return { ...requests, analyses: requests.analyses.filter((a) => (readsCurves && a.kind === 'ac') || (readsNoise && a.kind === 'noise') || (readsPoles && a.kind === 'poles')) };
 }
 
 /** Solves runs `from` (inclusive) to `to` (exclusive). Never throws. */

@@ -54,7 +54,8 @@ export function solveCircuit(circuit: Circuit, requests: Requests): CircuitRun {
 
   for (const kind of RUNNING_KINDS) {
     const request = requests.analyses.find((a): a is RequestOf<typeof kind> => a.kind === kind);
-    if (request) runAnalysis(kind, circuit, bias, request, result, diagnostics, ctx);
+    // An analysis that gave no member reported why; the measures that need it stay silent.
+    if (request && !runAnalysis(kind, circuit, bias, request, result, diagnostics, ctx)) failed.add(kind);
   }
 
   const measured = evaluateMeasures(requests.measures, requests.checks, ctx);
@@ -64,13 +65,14 @@ export function solveCircuit(circuit: Circuit, requests: Requests): CircuitRun {
   return { result, diagnostics };
 }
 
-/** Runs one analysis from the table and files its member, diagnostics and measure data. */
+/** Runs one analysis from the table and files its member, diagnostics and measure data; false when it gave no member. */
 function runAnalysis<K extends RunningKind>(
   kind: K, circuit: Circuit, bias: BiasPoint, request: RequestOf<K>, result: Partial<AnalysisMembers>, diagnostics: Diagnostic[], ctx: MeasureContext,
-): void {
+): boolean {
   const runner: AnalysisRunner<K, AnalysisMembers[K]> = ANALYSIS_RUNNERS[kind];
   const outcome = runner(circuit, bias, request);
   if (outcome.member !== undefined) result[kind] = outcome.member;
   diagnostics.push(...outcome.diagnostics);
   Object.assign(ctx, outcome.measures);
+  return outcome.member !== undefined;
 }

@@ -26,6 +26,11 @@ export interface SolveOptions {
    * requests come back in `OutlinedSolve.skipped` when the circuit solved.
    */
   skip?: ReadonlyArray<'mismatch'>;
+  /**
+   * Leave the analyses that re-solve the circuit many times (`vary`, `temp`, `sensitivity`) to a
+   * second stage, `OutlinedSolve.finish`: the bench paints the rest first and follows with them.
+   */
+  defer?: boolean;
 }
 
 /** A solve's result with the outline of the text from the same parse. */
@@ -35,6 +40,11 @@ export interface OutlinedSolve {
   outline: NetlistOutline;
   /** The requests `options.skip` left out, when the circuit solved (they would have run). */
   skipped: AnalysisRequest[];
+  /**
+   * With `options.defer`, when the circuit solved and the text asks for deferred analyses: runs
+   * them and returns the whole result, exactly what a solve without `defer` gives. Never throws.
+   */
+  finish?: () => SolveResult;
 }
 
 /** Solves a netlist. Never throws. */
@@ -50,10 +60,11 @@ export function solveNetlist(text: string, options: SolveOptions = {}): SolveRes
 export function solveWithOutline(text: string, options: SolveOptions = {}): OutlinedSolve {
   let result: SolveResult;
   let parsed: ParseResult | undefined;
+  let rest: (() => SolveResult) | undefined;
   const skipped: AnalysisRequest[] = [];
   try {
     parsed = parseNetlist(typeof text === 'string' ? text : '', { resolveUse: options.resolveUse });
-    result = solveParsed(parsed, options.skip ?? []);
+    ({ result, rest } = solveParsed(parsed, options.skip ?? [], options.defer ?? false));
     if (result.op && parsed.circuit) {
       const circuit = parsed.circuit;
       skipped.push(...parsed.requests.analyses.filter((a) => a.kind === 'mismatch' && options.skip?.includes(a.kind) && !mismatchPrecheck(circuit, a).some((d) => d.severity === 'error')));
@@ -63,50 +74,85 @@ export function solveWithOutline(text: string, options: SolveOptions = {}): Outl
     result = emptyResult('', 27);
     result.errors.push(diagnostic('error', 'internal-error', { line: 1, col: 1 }, `The solver hit an internal error: ${message}.`, 'this is a bug in Nodewright; please report it with the netlist'));
   }
+  const outline = parsed?.outline ?? emptyOutline();
+  if (!rest) return { result: finalize(result), outline, skipped };
+  const second = rest;
+  return { result: finalize(result), outline, skipped, finish: () => finalize(guarded(second)) };
+}
+
+/** Runs a stage that may hit an engine defect, turning the surprise into a diagnostic. */
+function guarded(stage: () => SolveResult): SolveResult {
+  try {
+    return stage();
+  } catch (err) {
+    const message = err instanceof Error ? err.message : String(err);
+    const result = emptyResult('', 27);
+    result.errors.push(diagnostic('error', 'internal-error', { line: 1, col: 1 }, `The solver hit an internal error: ${message}.`, 'this is a bug in Nodewright; please report it with the netlist'));
+    return result;
+  }
+}
+
+/** Every number finite, and every message through the one helper that shortens long user tokens. */
+function finalize(result: SolveResult): SolveResult {
   const clean = sanitize(result);
-  // Every message leaves through the one helper that shortens long user tokens.
   clean.errors = clean.errors.map(tidyDiagnostic);
   clean.warnings = clean.warnings.map(tidyDiagnostic);
-  return { result: clean, outline: parsed?.outline ?? emptyOutline(), skipped };
+  return clean;
 }
 
 function emptyResult(title: string, tempC: number): SolveResult {
   return { title, temp_c: tempC, measures: {}, checks: [], warnings: [], errors: [] };
 }
 
-function solveParsed(parsed: ParseResult, skip: ReadonlyArray<'mismatch'>): SolveResult {
+/**
+ * The solve of a parsed text: the circuit's run (operating point, ports, the per-circuit analyses,
+ * measures, checks) and mismatch, then the analyses that re-solve it many times (sweeps,
+ * sensitivity) — at once, or, with `defer`, in `rest` for the caller to run next.
+ */
+function solveParsed(parsed: ParseResult, skip: ReadonlyArray<'mismatch'>, defer: boolean): { result: SolveResult; rest?: () => SolveResult } {
   const diagnostics: Diagnostic[] = [...parsed.diagnostics];
   const circuit = parsed.circuit;
   let result = emptyResult(circuit?.title ?? '', circuit?.options.temp ?? 27);
+  const order = (r: SolveResult, ds: Diagnostic[]): SolveResult => {
+    const ordered = [...ds].sort((a, b) => a.line - b.line || a.col - b.col);
+    return { ...r, errors: ordered.filter((d) => d.severity === 'error'), warnings: ordered.filter((d) => d.severity !== 'error') };
+  };
   // The parser withholds the circuit when the circuit itself has errors; errors confined to
   // requests (a misspelt measure) leave it, and the rest of the results, in place.
-  if (circuit) {
-    diagnostics.push(...unavailableAnalyses(parsed.requests.analyses.filter((a) => !isSweep(a.kind) && a.kind !== 'mismatch' && a.kind !== 'sensitivity')));
-    const run = solveCircuit(circuit, parsed.requests);
-    result = { ...result, ...run.result };
-    diagnostics.push(...run.diagnostics);
-    // The sweeps re-run the circuit per value; only worth it when it solved as written.
-    if (run.result.op) {
-      const sweeps = runSweeps({ ...parsed, circuit });
-      result = { ...result, ...sweeps.members };
-      diagnostics.push(...sweeps.diagnostics);
-      if (!skip.includes('mismatch')) {
-        const mismatch = runMismatch(circuit, parsed.requests);
-        if (mismatch.member) result.mismatch = mismatch.member;
-        diagnostics.push(...mismatch.diagnostics);
-      } else {
-        // The runs are left to the caller, but what is wrong with the line is said now.
-        for (const request of parsed.requests.analyses) if (request.kind === 'mismatch') diagnostics.push(...mismatchPrecheck(circuit, request));
-      }
-      const sensitivity = runSensitivity(circuit, parsed.requests);
-      if (sensitivity.member) result.sensitivity = sensitivity.member;
-      diagnostics.push(...sensitivity.diagnostics);
-    }
+  if (!circuit) return { result: order(result, diagnostics) };
+  diagnostics.push(...unavailableAnalyses(parsed.requests.analyses.filter((a) => !isSweep(a.kind) && a.kind !== 'mismatch' && a.kind !== 'sensitivity')));
+  const run = solveCircuit(circuit, parsed.requests);
+  result = { ...result, ...run.result };
+  diagnostics.push(...run.diagnostics);
+  // The sweeps re-run the circuit per value; only worth it when it solved as written.
+  if (!run.result.op) return { result: order(result, diagnostics) };
+  let mismatch: SolveResult['mismatch'];
+  if (!skip.includes('mismatch')) {
+    const m = runMismatch(circuit, parsed.requests);
+    mismatch = m.member;
+    diagnostics.push(...m.diagnostics);
+  } else {
+    // The runs are left to the caller, but what is wrong with the line is said now.
+    for (const request of parsed.requests.analyses) if (request.kind === 'mismatch') diagnostics.push(...mismatchPrecheck(circuit, request));
   }
-  const ordered = [...diagnostics].sort((a, b) => a.line - b.line || a.col - b.col);
-  result.errors = ordered.filter((d) => d.severity === 'error');
-  result.warnings = ordered.filter((d) => d.severity !== 'error');
-  return result;
+  const base = result;
+  const manyRuns = (): SolveResult => {
+    const more = [...diagnostics];
+    const sweeps = runSweeps({ ...parsed, circuit });
+    more.push(...sweeps.diagnostics);
+    const sensitivity = runSensitivity(circuit, parsed.requests);
+    more.push(...sensitivity.diagnostics);
+    // One member order whichever way the stages ran.
+    const whole: SolveResult = { ...base, ...sweeps.members };
+    if (mismatch) whole.mismatch = mismatch;
+    if (sensitivity.member) whole.sensitivity = sensitivity.member;
+    return order(whole, more);
+  };
+  const deferred = parsed.requests.analyses.some((a) => isSweep(a.kind) || a.kind === 'sensitivity');
+  if (!defer || !deferred) return { result: manyRuns() };
+  const first: SolveResult = { ...base };
+  if (mismatch) first.mismatch = mismatch;
+  return { result: order(first, diagnostics), rest: manyRuns };
 }
 
 /**

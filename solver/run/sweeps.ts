@@ -26,6 +26,8 @@ export type SweepKind = (typeof SWEEP_KINDS)[number];
 
 /** At most this many ac points over all values of one sweep (values × points of the ac sweep). */
 export const MAX_SWEEP_WORK = 200_000;
+/** What one poles run counts for in MAX_SWEEP_WORK, in ac points. */
+export const POLES_SWEEP_POINTS = 20;
 
 /** What the sweeps add to a result. */
 export interface SweepMembers {
@@ -63,27 +65,30 @@ export function runSweeps(parsed: ParseResult & { circuit: Circuit }): { members
   return { members, diagnostics };
 }
 
-/** What each value re-runs: the ac sweep only of the analyses (not the transfer curve, not another sweep). */
+/** What each value re-runs: the ac and noise sweeps and the poles only of the analyses (not the transfer curve, not another sweep). */
 function perValueRequests(requests: Requests): Requests {
-  return { ...requests, analyses: requests.analyses.filter((a) => a.kind === 'ac') };
+  return { ...requests, analyses: requests.analyses.filter((a) => a.kind === 'ac' || a.kind === 'noise' || a.kind === 'poles') };
 }
 
-/** False (with an error on the analyze line) when the sweep would compute too many ac points. */
+/** False (with an error on the analyze line) when the sweep would compute too many ac and noise points. */
 function fits(request: VaryRequest | TempRequest, values: number, requests: Requests, diagnostics: Diagnostic[]): boolean {
-  const ac = requests.analyses.find((a) => a.kind === 'ac');
-  const points = ac ? Math.floor(Math.log10(ac.toHz / ac.fromHz) * ac.perDecade + 1e-9) + 1 : 1;
+  let points = 0;
+  for (const a of requests.analyses) if (a.kind === 'ac' || a.kind === 'noise') points += Math.floor(Math.log10(a.toHz / a.fromHz) * a.perDecade + 1e-9) + 1;
+  // A poles run (one LU and one eigenvalue decomposition) costs about as much as this many ac points.
+  if (requests.analyses.some((a) => a.kind === 'poles')) points += POLES_SWEEP_POINTS;
+  points = Math.max(points, 1);
   if (values * points <= MAX_SWEEP_WORK) return true;
   diagnostics.push(diagnostic('error', 'sweep-too-large', request.loc,
-    `analyze ${request.kind} would solve ${values} values × ${points} ac points, more than ${MAX_SWEEP_WORK.toLocaleString('en-US')}.`,
-    'use fewer values, or fewer ac points per decade'));
+    `analyze ${request.kind} would solve ${values} values × ${points} ac and noise points, more than ${MAX_SWEEP_WORK.toLocaleString('en-US')}.`,
+    'use fewer values, or fewer ac or noise points per decade'));
   return false;
 }
 
 /** One value: the run's members, or why the circuit did not solve there. */
 function runAt(circuit: Circuit, requests: Requests): SweepRun {
   const run = solveCircuit(circuit, requests);
-  const { op, ports, ac, measures, checks } = run.result;
-  if (op) return { op, ...(ports ? { ports } : {}), ...(ac ? { ac } : {}), measures, checks };
+  const { op, ports, ac, noise, poles, measures, checks } = run.result;
+  if (op) return { op, ...(ports ? { ports } : {}), ...(ac ? { ac } : {}), ...(noise ? { noise } : {}), ...(poles ? { poles } : {}), measures, checks };
   return failedRun(run.diagnostics);
 }
 

@@ -31,3 +31,17 @@ export function expectNearlyEqual(actual: number, expected: number, rel: number,
   const label = what ? `${what}: ` : '';
   expect(nearlyEqual(actual, expected, rel, abs), `${label}actual ${actual}, expected ${expected}, off by ${Math.abs(actual - expected)} > ${allowed} (rel ${rel}, abs ${abs})`).toBe(true);
 }
+
+/**
+ * Max-norm relative difference of two vectors, max|a − b| / max|b| (no squares, so tiny entries
+ * do not underflow); the plain max difference when `b` is all zeros.
+ */
+export function maxNormRelativeError(a: ArrayLike<number>, b: ArrayLike<number>): number {
+  let num = 0;
+  let den = 0;
+  for (let i = 0; i < a.length; i++) {
+    num = Math.max(num, Math.abs(a[i] - b[i]));
+    den = Math.max(den, Math.abs(b[i]));
+  }
+  return den === 0 ? num : num / den;
+}
