@@ -55,7 +55,7 @@ export const PAINTED_MARK = 'nw-painted';
         (fileDropped)="openFile($event)" (cursorLine)="store.cursorLine.set($event)"
         [library]="libraryIndex.entries()" (libraryVersionsWanted)="libraryIndex.loadVersions($event)" />
       <nw-problems-list problems [diagnostics]="store.diagnostics()" [stale]="store.stale()" (selected)="goToProblem($event)" (pinChange)="movePin($event)" />
-      <nw-results-panels class="results" [result]="store.shown()" [lines]="store.shownLines()" [stale]="store.stale()" [errorCount]="store.errorCount()"
+      <nw-results-panels class="results" [result]="store.shown()" [whole]="store.shownWhole()" [lines]="store.shownLines()" [stale]="store.stale()" [pending]="store.pending()" [errorCount]="store.errorCount()"
         [status]="client.status()" [slow]="client.slow()" [solveMs]="store.solveMs()" [failure]="client.failure()"
         [params]="store.names().params" (cancel)="client.cancel()" (lineSelected)="store.selectLine($event)" />
     </nw-bench-columns>

@@ -71,8 +71,10 @@ export class BenchStore {
   readonly solveMs = this.view.solveMs;
   /** What the panels show (see SolveView). */
   readonly shown = this.view.shown;
+  readonly shownWhole = this.view.shownWhole;
   readonly shownLines = this.view.shownLines;
   readonly stale = this.view.stale;
+  readonly pending = this.view.pending;
   readonly staleReason = this.view.staleReason;
 
   private nextKey = 1;

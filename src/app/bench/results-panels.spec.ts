@@ -20,8 +20,8 @@ describe('ResultsPanels', () => {
     expect(plain.tabs()).toEqual(['Bias', 'Response', 'Modes', 'Checks & measures', 'Other analyses']);
     const swept = await render(`${RESISTOR_TAIL_PAIR}analyze temp over -40 27 85\nanalyze transfer va from -50m to 50m step 5m\n`);
     expect(swept.tabs()).toEqual(['Bias', 'Response', 'Modes', 'Transfer', 'Sweeps', 'Checks & measures', 'Other analyses']);
-    const all = await render(`${RESISTOR_TAIL_PAIR}analyze vary rc over 5k 10k\nanalyze transfer va from -50m to 50m step 5m\nanalyze mismatch runs 10 is 1%\n`);
-    expect(all.tabs()).toEqual(['Bias', 'Response', 'Modes', 'Transfer', 'Sweeps', 'Mismatch', 'Checks & measures']);
+    const all = await render(`${RESISTOR_TAIL_PAIR}analyze vary rc over 5k 10k\nanalyze transfer va from -50m to 50m step 5m\nanalyze mismatch runs 10 is 1%\nanalyze noise out outa in va from 10 Hz to 1 MHz per decade 5\nanalyze poles\n`);
+    expect(all.tabs()).toEqual(['Bias', 'Response', 'Modes', 'Transfer', 'Sweeps', 'Mismatch', 'Noise', 'Poles', 'Checks & measures']);
   });
 
   it('keeps a tab while its analyze line is still being typed', async () => {
@@ -39,5 +39,27 @@ describe('ResultsPanels', () => {
     expect(text).toContain('Transfer curve');
     expect(text).toContain('No mismatch analysis yet');
     expect(text).not.toContain('Sweeps: a param or the temperature');
+  });
+
+  it('keeps the sweep of the earlier text, marked as updating, while the new one is solved', async () => {
+    const text = `${RESISTOR_TAIL_PAIR}analyze temp over -40 27 85\n`;
+    const { fixture, el } = await render(text);
+    const sweeps = [...el.querySelectorAll<HTMLElement>('[role=tab]')].find((t) => t.textContent!.includes('Sweeps'))!;
+    sweeps.click();
+    await fixture.whenStable();
+    expect(el.querySelector('nw-sweeps-panel table')).not.toBeNull();
+    const first = solveWithOutline(text.replace('85', '100'), { skip: ['mismatch'], defer: true });
+    expect(first.result.temp).toBeUndefined();
+    fixture.componentRef.setInput('result', first.result);
+    fixture.componentRef.setInput('pending', true);
+    await fixture.whenStable();
+    expect(el.querySelector('nw-sweeps-panel .updating')?.textContent).toContain('from the one before');
+    expect(el.querySelector('nw-sweeps-panel table')).not.toBeNull();
+    expect(el.querySelector('nw-results-summary')?.textContent).toContain('checking the sweeps');
+    fixture.componentRef.setInput('whole', first.finish!());
+    fixture.componentRef.setInput('pending', false);
+    await fixture.whenStable();
+    expect(el.querySelector('nw-sweeps-panel .updating')).toBeNull();
+    expect(el.querySelector('nw-sweeps-panel')?.textContent).toContain('100 °C');
   });
 });

@@ -1,10 +1,10 @@
 /**
  * The results side of a bench: the summary line, the panels (Bias, Response, Modes, then Transfer,
- * Sweeps and Mismatch when the text asks for them, Checks & measures, and the analyses not asked
+ * Sweeps, Mismatch, Noise and Poles when the text asks for them, Checks & measures, and the analyses not asked
  * for yet under "Other analyses" with how to ask) and the standing caution. The bench and the shared view both render it, from the
  * same solver, so a reviewer sees the very numbers the author saw.
  */
-import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input, linkedSignal, output } from '@angular/core';
 import { MatTabsModule } from '@angular/material/tabs';
 import type { SolveResult } from '../../../solver';
 import { Cautions } from '../core/cautions';
@@ -12,6 +12,8 @@ import { BiasPanel } from './panels/bias-panel';
 import { ChecksPanel } from './panels/checks-panel';
 import { MeasuresPanel } from './panels/measures-panel';
 import { MismatchPanel } from './panels/mismatch-panel';
+import { NoisePanel } from './panels/noise-panel';
+import { PolesPanel } from './panels/poles-panel';
 import { ModesPanel } from './panels/modes-panel';
 import { ResponsePanel } from './panels/response-panel';
 import { SensitivityTable } from './panels/sensitivity-table';
@@ -24,15 +26,15 @@ import { NO_LINES, type RequestLines } from './solver-protocol';
 let noteIds = 0;
 
 /** The tabs of analyses a netlist may or may not ask for, in tab order. */
-const OPTIONAL_TABS = ['transfer', 'sweeps', 'mismatch'] as const;
+const OPTIONAL_TABS = ['transfer', 'sweeps', 'mismatch', 'noise', 'poles'] as const;
 type OptionalTab = (typeof OPTIONAL_TABS)[number];
 
 @Component({
   selector: 'nw-results-panels',
-  imports: [ResultsSummary, Cautions, MatTabsModule, BiasPanel, ResponsePanel, ModesPanel, ChecksPanel, MeasuresPanel, TransferPanel, SweepsPanel, MismatchPanel, SensitivityTable],
+  imports: [ResultsSummary, Cautions, MatTabsModule, BiasPanel, ResponsePanel, ModesPanel, ChecksPanel, MeasuresPanel, TransferPanel, SweepsPanel, MismatchPanel, NoisePanel, PolesPanel, SensitivityTable],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    <nw-results-summary [result]="result()" [stale]="stale()" [errorCount]="errorCount()"
+    <nw-results-summary [result]="whole() ?? result()" [stale]="stale()" [pending]="pending() && asked().has('sweeps')" [errorCount]="errorCount()"
       [status]="status()" [slow]="slow()" [solveMs]="solveMs()" [failure]="failure()"
       (cancel)="cancel.emit()" />
     @if (stale()) { <p class="stale-note" [id]="noteId" role="note">These figures are from an earlier version of the netlist.</p> }
@@ -54,12 +56,22 @@ type OptionalTab = (typeof OPTIONAL_TABS)[number];
       }
       @if (asked().has('sweeps')) {
         <mat-tab label="Sweeps">
-          <ng-template matTabContent><div class="panel"><nw-sweeps-panel [result]="result()" [measureLines]="lines().measures" [params]="params()" [stale]="stale()" /></div></ng-template>
+          <ng-template matTabContent><div class="panel"><nw-sweeps-panel [result]="sweepsResult()" [measureLines]="lines().measures" [params]="params()" [stale]="stale() || pending()" [updating]="pending()" /></div></ng-template>
         </mat-tab>
       }
       @if (asked().has('mismatch')) {
         <mat-tab label="Mismatch">
           <ng-template matTabContent><div class="panel"><nw-mismatch-panel [result]="result()" [lines]="lines()" /></div></ng-template>
+        </mat-tab>
+      }
+      @if (asked().has('noise')) {
+        <mat-tab label="Noise">
+          <ng-template matTabContent><div class="panel"><nw-noise-panel [result]="result()" /></div></ng-template>
+        </mat-tab>
+      }
+      @if (asked().has('poles')) {
+        <mat-tab label="Poles">
+          <ng-template matTabContent><div class="panel"><nw-poles-panel [result]="result()" /></div></ng-template>
         </mat-tab>
       }
       <mat-tab>
@@ -71,9 +83,13 @@ type OptionalTab = (typeof OPTIONAL_TABS)[number];
           <nw-checks-panel [result]="result()" [measureLines]="lines().measures" [stale]="stale()" (lineSelected)="lineSelected.emit($event)" />
           <h2 class="sub">Measures</h2>
           <nw-measures-panel [result]="result()" [measureLines]="lines().measures" (lineSelected)="lineSelected.emit($event)" />
-          @if (result()?.sensitivity) {
+          @if (sweepsResult()?.sensitivity) {
             <h2 class="sub">Sensitivity</h2>
-            <nw-sensitivity-table [result]="result()" />
+            @if (pending()) { <p class="updating" role="status">Updating for the newest text — these figures are from the one before.</p> }
+            <nw-sensitivity-table [result]="sweepsResult()" />
+          } @else if (pending() && asksSensitivity()) {
+            <h2 class="sub">Sensitivity</h2>
+            <p class="updating" role="status">Solving the sensitivities…</p>
           }
         </div></ng-template>
       </mat-tab>
@@ -87,6 +103,8 @@ type OptionalTab = (typeof OPTIONAL_TABS)[number];
                   @case ('transfer') { <h2 class="sub" id="nw-other-transfer">Transfer curve</h2><nw-transfer-panel [result]="result()" /> }
                   @case ('sweeps') { <h2 class="sub" id="nw-other-sweeps">Sweeps: a param or the temperature</h2><nw-sweeps-panel [result]="result()" [measureLines]="lines().measures" [params]="params()" [stale]="stale()" /> }
                   @case ('mismatch') { <h2 class="sub" id="nw-other-mismatch">Mismatch</h2><nw-mismatch-panel [result]="result()" [lines]="lines()" /> }
+                  @case ('noise') { <h2 class="sub" id="nw-other-noise">Noise</h2><nw-noise-panel [result]="result()" /> }
+                  @case ('poles') { <h2 class="sub" id="nw-other-poles">Poles and zeros</h2><nw-poles-panel [result]="result()" /> }
                 }
               </section>
             }
@@ -105,6 +123,8 @@ type OptionalTab = (typeof OPTIONAL_TABS)[number];
     .panels.stale ::ng-deep .tag.pass { color: var(--mat-sys-on-surface-variant); background: transparent; border: 1px dashed var(--mat-sys-outline); }
     .stale-note { margin: 0 0 4px; padding: 2px 8px; font-size: 0.8125rem; color: #6b4600; background: #fbecc8; border-radius: 4px; }
     .panel { padding: 10px 12px; }
+    /* Tighter tabs: seven fit the results column of a 1280 px screen without paging arrows. */
+    :host ::ng-deep .panels .mat-mdc-tab { padding: 0 12px; min-width: 0; }
     :host ::ng-deep .panels .mat-mdc-tab-body-wrapper { flex: 1 1 auto; min-height: 0; }
     /* Contained: a result's new numbers re-lay out the open panel only, not the page. */
     :host ::ng-deep .panels .mat-mdc-tab-body-content { overflow: auto; contain: strict; }
@@ -113,6 +133,7 @@ type OptionalTab = (typeof OPTIONAL_TABS)[number];
     .badge.old { border: 1px dashed var(--mat-sys-outline); color: var(--mat-sys-on-surface-variant); }
     .sub { font: var(--mat-sys-title-small); margin: 18px 0 6px; color: var(--mat-sys-on-surface-variant); }
     .caution { display: block; flex: none; }
+    .updating { margin: 0 0 6px; padding: 2px 8px; font-size: 0.8125rem; color: #6b4600; background: #fbecc8; border-radius: 4px; }
     .others-intro { margin: 0 0 4px; color: var(--mat-sys-on-surface-variant); font-size: 0.875rem; }
     .others section + section { margin-top: 8px; border-top: 1px solid var(--mat-sys-outline-variant); }
     .caution ::ng-deep .caution { margin-top: 8px; padding: 6px 10px; font-size: 0.8125rem; }
@@ -127,6 +148,13 @@ export class ResultsPanels {
   readonly params = input<readonly string[]>([]);
   /** The result is not the current text's (see SolveView): every figure is marked, no pass is green. */
   readonly stale = input(false);
+  /** The result's sweeps and sensitivity are still being solved (the reply is `pending`). */
+  readonly pending = input(false);
+  /**
+   * The whole result once the second stage completed (sweeps, sensitivity); the other panels
+   * read `result`, which does not change then.
+   */
+  readonly whole = input<SolveResult | undefined>();
   readonly errorCount = input(0);
   readonly status = input<SolveStatus>('idle');
   readonly slow = input(false);
@@ -147,8 +175,25 @@ export class ResultsPanels {
     if (kinds.has('transfer') || r?.transfer) asked.add('transfer');
     if (kinds.has('vary') || kinds.has('temp') || r?.vary || r?.temp) asked.add('sweeps');
     if (kinds.has('mismatch') || r?.mismatch) asked.add('mismatch');
+    if (kinds.has('noise') || r?.noise) asked.add('noise');
+    if (kinds.has('poles') || r?.poles) asked.add('poles');
     return asked;
   });
+  /**
+   * What the Sweeps tab and the sensitivity table read: the result, and while its second stage
+   * runs, the sweeps and sensitivity of the result before (marked as updating), so the tab does
+   * not blank on every keystroke.
+   */
+  private readonly held = linkedSignal<{ result: SolveResult | undefined; pending: boolean }, Pick<SolveResult, 'vary' | 'temp' | 'sensitivity'>>({
+    source: () => ({ result: this.whole() ?? this.result(), pending: this.pending() }),
+    computation: ({ result, pending }, previous) => (pending ? previous?.value ?? {} : { vary: result?.vary, temp: result?.temp, sensitivity: result?.sensitivity }),
+  });
+  protected readonly sweepsResult = computed(() => {
+    const r = this.whole() ?? this.result();
+    const held = this.held(); // read every time, so it has seen the result before a pending one
+    return r && this.pending() ? { ...r, ...held } : r;
+  });
+  protected readonly asksSensitivity = computed(() => this.lines().analyses.some((a) => a.kind === 'sensitivity'));
   protected readonly notAsked = computed(() => OPTIONAL_TABS.filter((t) => !this.asked().has(t)));
   protected readonly failedChecks = computed(() => this.result()?.checks.filter((c) => !c.pass).length ?? 0);
 }

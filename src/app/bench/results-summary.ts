@@ -35,6 +35,9 @@ function db(value: number | undefined): string {
           @else { <span aria-hidden="true">✕</span> {{ c.failed }} of {{ c.total }} {{ c.total === 1 ? 'check fails' : 'checks fail' }} }
         </span>
       }
+      @if (pending() && !stale() && (result()?.checks?.length ?? 0) > 0) {
+        <span class="sweep" role="status">checking the sweeps…</span>
+      }
       @for (s of sweeps(); track s.kind) {
         <span class="sweep" [class.fail]="!stale() && s.failing.length > 0" [class.pass]="!stale() && s.failing.length === 0" [class.old]="stale()" [title]="s.detail">
           <span aria-hidden="true">{{ s.failing.length === 0 ? '✓' : '✕' }}</span> {{ s.text }}
@@ -91,6 +94,8 @@ export class ResultsSummary {
   readonly result = input<SolveResult | undefined>();
   /** The result is from an earlier version of the netlist (see SolveView). */
   readonly stale = input(false);
+  /** The text's sweeps are still being solved: nothing is said of them yet. */
+  readonly pending = input(false);
   readonly errorCount = input(0);
   readonly status = input<SolveStatus>('idle');
   readonly slow = input(false);
@@ -106,7 +111,7 @@ export class ResultsSummary {
    */
   protected readonly sweeps = computed(() => {
     const r = this.result();
-    if (!r?.op || r.checks.length === 0) return [];
+    if (!r?.op || r.checks.length === 0 || this.pending()) return [];
     return sweepKinds(r).flatMap((kind) => {
       const data = sweepData(r, kind);
       if (!data) return [];

@@ -58,6 +58,11 @@ export function decideView({ reply, lastSolved, status, slow }: ViewInputs): Vie
   return { shown, stale: fallBack ? 'circuit' : undefined };
 }
 
+/** A reply's whole result: the second stage's when it completed, else the first's. */
+function wholeOf(reply: SolveReply | undefined): SolveResult | undefined {
+  return reply?.whole ?? reply?.result;
+}
+
 /** Equal plain data (small: a netlist's diagnostics or names). */
 function sameData<T>(a: T, b: T): boolean {
   return a === b || JSON.stringify(a) === JSON.stringify(b);
@@ -71,23 +76,30 @@ export class SolveView {
   readonly errorCount: Signal<number>;
   readonly names: Signal<NetlistNames>;
   readonly solveMs: Signal<number | undefined>;
-  /** What the panels show (see `decideView`). */
+  /**
+   * What the panels show (see `decideView`): the first stage's result, the same object once the
+   * second stage completes, so panels that read only it are not redrawn then.
+   */
   readonly shown: Signal<SolveResult | undefined>;
+  /** The shown reply's whole result: with its sweeps and sensitivity once they completed. */
+  readonly shownWhole: Signal<SolveResult | undefined>;
   /** The measure and check lines of the shown result's text, from the parse that gave it. */
   readonly shownLines: Signal<RequestLines>;
   /** Why the shown result is not the current text's, if it is not. */
   readonly staleReason: Signal<StaleReason | undefined>;
   /** The shown result is not the current text's: every figure is marked and nothing shows a pass in green. */
   readonly stale: Signal<boolean>;
+  /** The shown result's sweeps and sensitivity are still being solved (see SolveReply.pending). */
+  readonly pending: Signal<boolean>;
 
   constructor(client: SolverClient) {
-    this.latest = computed(() => client.reply()?.result);
+    this.latest = computed(() => wholeOf(client.reply()));
     // Most keystrokes change values, not diagnostics or names: keeping the same array (and object)
     // then spares the editor's lint and completion, and the problems list, a redo per keystroke.
     this.diagnostics = computed(() => {
       const reply = client.reply();
       if (!reply) return [];
-      const r = reply.result;
+      const r = wholeOf(reply)!;
       return [...r.errors, ...r.warnings, ...libraryNotices(reply.names.uses, reply.text)].sort((a, b) => a.line - b.line || a.col - b.col);
     }, { equal: sameData });
     this.errorCount = computed(() => this.latest()?.errors.length ?? 0);
@@ -95,8 +107,10 @@ export class SolveView {
     this.solveMs = computed(() => client.reply()?.solveMs);
     const decision = computed(() => decideView({ reply: client.reply(), lastSolved: client.lastSolved(), status: client.status(), slow: client.slow() }));
     this.shown = computed(() => decision().shown?.result);
+    this.shownWhole = computed(() => wholeOf(decision().shown));
     this.shownLines = computed(() => decision().shown?.lines ?? NO_LINES);
     this.staleReason = computed(() => decision().stale);
     this.stale = computed(() => decision().stale !== undefined);
+    this.pending = computed(() => decision().shown?.pending === true);
   }
 }

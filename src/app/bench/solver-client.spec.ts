@@ -30,11 +30,17 @@ class FakeWorker implements WorkerLike {
     return this;
   }
   /** Answers a request (the last by default) with a result titled by its text, after `solveMs` in the worker. */
-  answer(request = this.sent[this.sent.length - 1], { solved = true, solveMs = 5 } = {}): void {
+  answer(request = this.sent[this.sent.length - 1], { solved = true, solveMs = 5, pending = false } = {}): void {
     if (this.terminated) return;
     const op = solved ? { nodes: {}, sources: {}, parts: {}, devices: {} } : undefined;
     const result = { title: request.text, temp_c: 27, op, measures: {}, checks: [], warnings: [], errors: [] } as SolveResult;
-    this.onmessage?.({ data: { type: 'solved', id: request.id, result, text: request.text, names: NO_NAMES, lines: NO_LINES, solveMs } } as MessageEvent<WorkerMessage>);
+    this.onmessage?.({ data: { type: 'solved', id: request.id, result, text: request.text, names: NO_NAMES, lines: NO_LINES, solveMs, ...(pending ? { pending } : {}) } } as MessageEvent<WorkerMessage>);
+  }
+  /** The second stage of a pending reply: the whole result, with its sweep. */
+  complete(request = this.sent[this.sent.length - 1]): void {
+    if (this.terminated) return;
+    const result = { title: request.text, temp_c: 27, op: { nodes: {}, sources: {}, parts: {}, devices: {} }, temp: { values_c: [0, 50], runs: [] }, measures: {}, checks: [], warnings: [], errors: [] } as unknown as SolveResult;
+    this.onmessage?.({ data: { type: 'completed', id: request.id, result, solveMs: 20 } } as MessageEvent<WorkerMessage>);
   }
   texts(): string[] {
     return this.sent.map((r) => r.text);
@@ -65,6 +71,55 @@ describe('SolverClient', () => {
     w.answer(undefined, { solveMs });
     return w;
   }
+
+  it('shows a pending reply at once and its whole result when the second stage completes', () => {
+    const w = firstSolve('a', 5);
+    client.edit('b');
+    vi.advanceTimersByTime(0);
+    w.answer(undefined, { pending: true });
+    expect(client.reply()?.result.title).toBe('b');
+    expect(client.reply()?.pending).toBe(true);
+    expect(client.reply()?.result.temp).toBeUndefined();
+    expect(client.status()).toBe('idle');
+    const first = client.reply()!.result;
+    w.complete();
+    expect(client.reply()?.pending).toBe(false);
+    expect(client.reply()?.whole?.temp?.values_c).toEqual([0, 50]);
+    // The first stage's result is kept as it was: panels that read only it are not redrawn.
+    expect(client.reply()?.result).toBe(first);
+    expect(client.lastSolved()?.whole?.temp).toBeDefined();
+  });
+
+  it('ignores a completion of text whose newer reply is already shown', () => {
+    const w = firstSolve('a', 5);
+    client.edit('b');
+    vi.advanceTimersByTime(0);
+    w.answer(undefined, { pending: true });
+    const b = w.sent[w.sent.length - 1];
+    client.edit('c');
+    vi.advanceTimersByTime(0);
+    expect(w.texts()).toEqual(['a', 'b', 'c']);
+    w.answer();
+    expect(client.reply()?.result.title).toBe('c');
+    w.complete(b);
+    expect(client.reply()?.result.title).toBe('c');
+    expect(client.reply()?.whole).toBeUndefined();
+  });
+
+  it('completes the shown reply while newer text waits behind its second stage', () => {
+    const w = firstSolve('a', 5);
+    client.edit('b');
+    vi.advanceTimersByTime(0);
+    w.answer(undefined, { pending: true });
+    const b = w.sent[w.sent.length - 1];
+    client.edit('c');
+    vi.advanceTimersByTime(0);
+    w.complete(b);
+    expect(client.reply()?.result.title).toBe('b');
+    expect(client.reply()?.pending).toBe(false);
+    w.answer();
+    expect(client.reply()?.result.title).toBe('c');
+  });
 
   it('sends every edit at once, to the worker, with no quiet period to wait for', () => {
     client.warmUp();

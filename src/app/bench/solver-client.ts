@@ -15,10 +15,13 @@
  *    FINISH_MS; otherwise it is left to finish, with a deadline that ends it should it overrun. A
  *    worker still loading is never terminated (a fresh one would load no sooner). A new spare
  *    loads on the core a terminated solve freed;
- *  - a solve longer than SLOW_MS raises `slow`, for a progress indicator with a cancel button.
+ *  - a solve longer than SLOW_MS raises `slow`, for a progress indicator with a cancel button;
+ *  - a reply marked `pending` is shown at once; the worker then runs the second stage (sweeps,
+ *    sensitivity) and its `completed` message replaces the shown result. Meanwhile the worker
+ *    counts as busy, so newer text weighs waiting against the spare as for a stale solve.
  */
 import { DestroyRef, inject, Injectable, InjectionToken, signal } from '@angular/core';
-import type { LibraryContext, SolveReply, SolveRequest, WorkerMessage } from './solver-protocol';
+import type { CompletedMessage, LibraryContext, SolveReply, SolveRequest, WorkerMessage } from './solver-protocol';
 
 /** The part of a Worker the client uses (a fake stands in for it in unit tests). */
 export interface WorkerLike {
@@ -196,6 +199,10 @@ export class SolverClient {
       return;
     }
     if (source !== this.active) return;
+    if (message.type === 'completed') {
+      this.onCompleted(message);
+      return;
+    }
     this.lastSolveMs = message.solveMs;
     this.clearDeadline();
     if (message.id !== this.running?.id) {
@@ -207,13 +214,25 @@ export class SolverClient {
       return;
     }
     this.running = undefined;
-    this.busy = undefined;
+    // A pending reply's worker goes on with the second stage: busy with it as with a stale solve.
+    this.busy = message.pending ? { id: message.id, text: message.text, since: now } : undefined;
     this.clearSlow();
     this.failure.set(undefined);
     this.reply.set(message);
     if (message.result.op) this.lastSolved.set(message);
     this.scheduleSpare();
     if (this.pendingText === undefined) this.status.set('idle');
+  }
+
+  /** The second stage of the shown reply: its whole result joins the first stage's (see SolveReply.whole). */
+  private onCompleted(message: CompletedMessage): void {
+    if (this.busy?.id === message.id) this.busy = undefined;
+    this.clearDeadline();
+    const shown = this.reply();
+    if (shown?.id !== message.id) return;
+    const whole: SolveReply = { ...shown, whole: message.result, pending: false };
+    this.reply.set(whole);
+    if (this.lastSolved()?.id === message.id) this.lastSolved.set(whole);
   }
 
   private onError(source: Handle, event: ErrorEvent): void {

@@ -114,6 +114,26 @@ export interface SolveReply {
   solveMs: number;
   /** The text's `analyze mismatch`, left out of this solve, when its circuit solved. */
   mismatch?: MismatchAsk;
+  /**
+   * The analyses that re-solve the circuit many times (`vary`, `temp`, `sensitivity`) are still
+   * to come, in a `completed` message for the same id — unless newer text arrives first.
+   */
+  pending?: boolean;
+  /**
+   * Set by the client when the second stage completed: the whole result (`result` plus the
+   * sweeps and sensitivity and their diagnostics). `result` itself is kept, so the panels that
+   * read only it are not redrawn when the sweeps arrive.
+   */
+  whole?: SolveResult;
+}
+
+/** Worker → bench: the whole result of a reply that was `pending`. */
+export interface CompletedMessage {
+  type: 'completed';
+  id: number;
+  result: SolveResult;
+  /** Wall time of the second stage, ms. */
+  solveMs: number;
 }
 
 /** Worker → bench, once its module has loaded. */
@@ -121,4 +141,4 @@ export interface ReadyMessage {
   type: 'ready';
 }
 
-export type WorkerMessage = SolveReply | ReadyMessage;
+export type WorkerMessage = SolveReply | CompletedMessage | ReadyMessage;

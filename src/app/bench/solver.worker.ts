@@ -1,6 +1,8 @@
 /**
  * The solver worker: netlist text in; out, from the solver's one parse of it, the §5 result, the
- * names it defines and its measure and check lines.
+ * names it defines and its measure and check lines — in two stages when the text asks for
+ * analyses that re-solve the circuit many times: everything else first (`pending`), then the
+ * whole result (`completed`), skipped when newer text is already waiting.
  *
  * Requests that wait are coalesced: when several arrive while the worker is busy (or before its
  * module has loaded), only the newest is solved and the older ones get no reply — the bench
@@ -10,7 +12,7 @@
 import { readBlockDocs, type OutlineUse } from '../../../solver';
 import { openBlockCache } from './block-cache';
 import { LibraryResolver } from './library-resolver';
-import { solveReply } from './solve-reply';
+import { stagedSolveReply } from './solve-reply';
 import type { SolveRequest, UsedBlock, WorkerMessage } from './solver-protocol';
 
 /** The worker's global scope, typed by what is used (the app compiles against the DOM library). */
@@ -45,11 +47,18 @@ async function drain(): Promise<void> {
     const started = performance.now();
     const context = request.library ?? {};
     // `analyze mismatch` is left out and reported: the Mismatch tab runs it over its own workers.
-    const reply = await library.solveWith(context, (resolveUse) => solveReply(request.id, request.text, { resolveUse, describeUse: usedBlock, library: context }), () => !!waiting);
-    if (!reply) continue; // superseded while its library blocks were fetched
+    // The sweeps and sensitivity come second, so the rest is painted without waiting for them.
+    const staged = await library.solveWith(context, (resolveUse) => stagedSolveReply(request.id, request.text, { resolveUse, describeUse: usedBlock, library: context }, true), () => !!waiting);
+    if (!staged) continue; // superseded while its library blocks were fetched
     // The bench's guess of the next solve's time counts the library fetches too.
-    scope.postMessage({ ...reply, solveMs: performance.now() - started });
+    scope.postMessage({ ...staged.reply, solveMs: performance.now() - started });
     await new Promise((resolve) => setTimeout(resolve, 0)); // let requests sent during the solve arrive
+    if (staged.finish && !waiting) {
+      const second = performance.now();
+      const result = staged.finish();
+      scope.postMessage({ type: 'completed', id: request.id, result, solveMs: performance.now() - second });
+      await new Promise((resolve) => setTimeout(resolve, 0));
+    }
   }
   draining = false;
 }

@@ -56,7 +56,7 @@ type Load = { kind: 'loading' } | { kind: 'shown'; shared: SharedNetlist } | { k
             <nw-netlist-editor netlist class="editor" [document]="document()" [diagnostics]="view.diagnostics()" [names]="view.names()"
               [reveal]="reveal()" [readOnly]="true" label="Shared netlist, read only" />
             <nw-problems-list problems [diagnostics]="view.diagnostics()" (selected)="goTo($event.line, $event.col)" />
-            <nw-results-panels class="results" [result]="view.shown()" [lines]="view.shownLines()" [stale]="view.stale()" [errorCount]="view.errorCount()"
+            <nw-results-panels class="results" [result]="view.shown()" [whole]="view.shownWhole()" [lines]="view.shownLines()" [stale]="view.stale()" [pending]="view.pending()" [errorCount]="view.errorCount()"
               [status]="client.status()" [slow]="client.slow()" [solveMs]="view.solveMs()" [failure]="client.failure()"
               (cancel)="client.cancel()" (lineSelected)="goTo($event)" />
           </nw-bench-columns>

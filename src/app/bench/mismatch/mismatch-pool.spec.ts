@@ -83,8 +83,12 @@ describe('MismatchPool', () => {
 
   it('refuses what the CLI refuses: more than 200,000 runs × parts', async () => {
     const text = mismatchedPair('runs 50000 seed 1 beta 5%');
+    // The live solve says so on the line and hands the tab no run to make …
+    expect(solveReply(1, text).mismatch).toBeUndefined();
+    // … and a pool asked all the same refuses with the CLI's words.
+    const line = text.split('\n').findIndex((l) => l.startsWith('analyze mismatch')) + 1;
     const p = pool(2);
-    p.start(text, ask(text));
+    p.start(text, { line, runs: 50000, seed: 1, sigmas: { beta: 0.05 }, library: {} });
     await settle(p);
     expect(p.job()!.status).toBe('failed');
     expect(p.job()!.error).toMatch(/50000 runs of 9 parts, more than 200,000/);

@@ -20,8 +20,11 @@ let groupIds = 0;
   imports: [PanelNotice, SweepTable, SweepMeasurePlot, SweepOverlay],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
+    @if (updating()) {
+      <p class="updating" role="status">{{ data() ? 'Updating for the newest text — these figures are from the one before.' : 'Solving the sweep…' }}</p>
+    }
     @if (notice(); as n) {
-      <nw-panel-notice [notice]="n" />
+      @if (!updating()) { <nw-panel-notice [notice]="n" /> }
     } @else if (data(); as d) {
       <div class="head">
         @if (kinds().length > 1) {
@@ -56,6 +59,7 @@ let groupIds = 0;
     .option.on { background: var(--mat-sys-secondary-container); color: var(--mat-sys-on-secondary-container); font-weight: 600; }
     .option + .option { border-left: 1px solid var(--mat-sys-outline); }
     .option:has(input:focus-visible) { outline: 2px solid var(--mat-sys-tertiary); outline-offset: -2px; }
+    .updating { margin: 0 0 6px; padding: 2px 8px; font-size: 0.8125rem; color: #6b4600; background: #fbecc8; border-radius: 4px; }
     .summary { margin: 0; font-size: 0.875rem; color: var(--mat-sys-on-surface-variant); }
     .sub { font: var(--mat-sys-title-small); margin: 16px 0 6px; color: var(--mat-sys-on-surface-variant); }
     .note { font-size: 0.875rem; color: var(--mat-sys-on-surface-variant); }
@@ -70,6 +74,11 @@ export class SweepsPanel {
   readonly params = input<readonly string[]>([]);
   /** The result is from an earlier version of the netlist: no pass or fail is coloured. */
   readonly stale = input(false);
+  /**
+   * The current text's sweeps are still being solved: the figures shown (if any) are the text's
+   * before, and say so.
+   */
+  readonly updating = input(false);
 
   protected readonly groupName = `nw-sweep-kind-${++groupIds}`;
   private readonly chosen = signal<SweepKind | undefined>(undefined);

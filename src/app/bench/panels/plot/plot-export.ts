@@ -31,11 +31,15 @@ export interface CsvColumn {
   values: readonly number[];
 }
 
-/** CSV of columns, one row per sample of the first column; RFC 4180 quoting, CRLF rows. */
+/**
+ * CSV of columns, one row per sample of the first column; RFC 4180 quoting, CRLF rows. A value
+ * that is not a number (a point where a figure is undefined) is an empty field, never "NaN".
+ */
 export function columnsCsv(columns: readonly CsvColumn[]): string {
   const rows = [columns.map((c) => csvField(c.name)).join(',')];
   const n = columns[0]?.values.length ?? 0;
-  for (let k = 0; k < n; k++) rows.push(columns.map((c) => (k < c.values.length ? String(c.values[k]) : '')).join(','));
+  const field = (v: number | undefined) => (v !== undefined && Number.isFinite(v) ? String(v) : '');
+  for (let k = 0; k < n; k++) rows.push(columns.map((c) => field(c.values[k])).join(','));
   return rows.join('\r\n') + '\r\n';
 }
 

@@ -1,8 +1,9 @@
 /**
- * Drawing a plot on linear axes (the transfer curves) into an SVG with d3: per-unit panels with
- * SI-formatted ticks and unit titles, the curves, a marked x span (the linear input range) with
- * its ends ringed on the marked curve, and the crosshair cursor. Shared looks come from the
- * plot stylesheet embedded in the SVG.
+ * Drawing a plot on linear axes (the transfer curves) or log ones (noise densities) into an SVG
+ * with d3: per-unit panels with SI-formatted ticks and unit titles (a log axis with a faint grid
+ * at its minor ticks), the curves, a marked x span (the linear input range) with its ends ringed
+ * on the marked curve, and the crosshair cursor. Shared looks come from the plot stylesheet
+ * embedded in the SVG.
  */
 import { line, select } from 'd3';
 import { formatTick } from '../si-format';
@@ -10,7 +11,7 @@ import {
   addClip, CURSOR_STRIP, drawExportLegend, drawMarkers, haloText, horizontals, PATH_DIGITS, prepareSvg, round, verticals, type G, type MarkerMark,
 } from './draw-common';
 import type { LabelRequest } from './label-place';
-import type { XyGeometry, XyRule, XySeries } from './xy-geometry';
+import type { XyGeometry, XyPanel, XyRule, XySeries } from './xy-geometry';
 
 /** A marked span of the x axis and the curve whose range it is. */
 export interface XyBand {
@@ -49,6 +50,11 @@ export function drawXy(
     const clip = `${clipId}-${index}`;
     addClip(svg, clip, { x: 0, y: top, width: geo.innerWidth, height: panel.box.height });
     const yTicks = panel.ticks.filter((v) => panel.y(v) >= top - 0.5 && panel.y(v) <= bottom + 0.5);
+    // Log axes: 2…9 of each decade as a faint grid under the labelled one, as on the Bode plot.
+    if (geo.xMinorTicks.length > 0 || panel.minorTicks.length > 0) {
+      g.append('path').attr('class', 'grid-minor').attr('d', verticals(geo.xMinorTicks.map((v) => geo.x(v)), top, bottom)
+        + horizontals(panel.minorTicks.map((v) => panel.y(v)), 0, geo.innerWidth));
+    }
     g.append('path').attr('class', 'grid').attr('d', verticals(xPx, top, bottom) + horizontals(yTicks.map((v) => panel.y(v)), 0, geo.innerWidth));
     if (yTicks.includes(0) && yTicks[0] !== 0 && yTicks[yTicks.length - 1] !== 0) {
       g.append('path').attr('class', 'zero').attr('d', horizontals([panel.y(0)], 0, geo.innerWidth));
@@ -73,7 +79,7 @@ export function drawXy(
     const curves = g.append('g').attr('clip-path', `url(#${clip})`);
     for (const s of series.filter((c) => c.unit === panel.unit)) {
       const path = line<number>()
-        .defined((k) => Number.isFinite(s.values[k]) && Number.isFinite(xs[k]))
+        .defined((k) => onAxis(panel, s.values[k]) && Number.isFinite(xs[k]))
         .x((k) => geo.x(xs[k]))
         .y((k) => panel.y(s.values[k]))
         .digits(PATH_DIGITS);
@@ -81,12 +87,12 @@ export function drawXy(
         .attr('d', path(xs.map((_, k) => k)) ?? '')
         .attr('stroke', s.style.color).attr('stroke-dasharray', s.style.dash || null);
     }
-    drawRules(g, geo, rules.filter((r) => r.unit === panel.unit), panel.y);
+    drawRules(g, geo, rules.filter((r) => r.unit === panel.unit && onAxis(panel, r.value)), panel.y);
     // Dots are left unclipped: a sweep's end values sit on the frame and would show only half.
     for (const s of series.filter((c) => c.unit === panel.unit && c.points)) {
       const dots = g.append('g').attr('class', 'points').attr('data-key', s.key).attr('fill', s.style.color);
       for (const [k, v] of s.values.entries()) {
-        if (!Number.isFinite(v) || !Number.isFinite(xs[k])) continue;
+        if (!onAxis(panel, v) || !Number.isFinite(xs[k])) continue;
         dots.append('circle').attr('cx', round(geo.x(xs[k]))).attr('cy', round(panel.y(v))).attr('r', 3.5);
       }
     }
@@ -119,7 +125,7 @@ function bandMarks(root: G, geo: XyGeometry, xs: readonly number[], series: read
   if (curve && panel) {
     for (const [id, at, label] of [['range-lo', band.lo, band.loLabel], ['range-hi', band.hi, band.hiLabel]] as const) {
       const y = interpolate(xs, curve.values, at);
-      if (!Number.isFinite(y)) continue;
+      if (!onAxis(panel, y)) continue;
       marks.push({ id, kind: 'range', x: geo.x(at), y: panel.y(y), label: label ?? formatTick(at), priority: 1 });
     }
   }
@@ -136,6 +142,11 @@ function bandMarks(root: G, geo: XyGeometry, xs: readonly number[], series: read
     return { x: 0, y: top, width: geo.innerWidth, height: p.box.top - top };
   });
   return drawMarkers(root, marks, bounds, [strip, ...gaps], [bandLabel]);
+}
+
+/** Whether a panel's y axis has a place for v: finite, and positive on a log axis. */
+function onAxis(panel: XyPanel, v: number): boolean {
+  return Number.isFinite(v) && (!panel.log || v > 0);
 }
 
 /** y at `at` on the polyline (xs, ys), xs running either way; NaN outside. */
@@ -161,7 +172,7 @@ export function drawXyCursor(svgEl: SVGSVGElement, geo: XyGeometry, xs: readonly
   for (const s of series) {
     const panel = geo.panels.find((p) => p.unit === s.unit);
     const v = s.values[index];
-    if (!panel || !Number.isFinite(v)) continue;
+    if (!panel || !onAxis(panel, v)) continue;
     g.append('circle').attr('cx', x).attr('cy', round(panel.y(v))).attr('r', 3.5).attr('fill', s.style.color);
   }
   const onRight = x > geo.innerWidth - 70;

@@ -13,7 +13,7 @@ let helpCounter = 0;
 const MAX_HEIGHT = 900;
 
 /**
- * A plot on linear axes: curves over a swept value, one panel per unit (volts above amperes),
+ * A plot on linear axes (either may be logarithmic): curves over a swept value, one panel per unit (volts above amperes),
  * an optional marked span of the x axis, and a crosshair cursor that follows the mouse and the
  * arrow keys with a readout of every curve. It takes the height its panel leaves free. Drawn as
  * SVG, exported through `svgText()`.
@@ -70,6 +70,8 @@ export class XyPlot {
   readonly band = input<XyBand>();
   /** A logarithmic x axis (used only when every x is positive). */
   readonly xLog = input(false);
+  /** Logarithmic y axes, in whole decades (values ≤ 0 are left out; a panel with none stays linear). */
+  readonly yLog = input(false);
   /** Horizontal lines to draw (a check's limits), each in the panel of its unit. */
   readonly rules = input<readonly XyRule[]>([]);
   /** Title of the y axis of a one-panel plot, instead of the unit's (e.g. "a0 (dB)"). */
@@ -107,6 +109,7 @@ export class XyPlot {
     x: this.x(),
     series: this.series(),
     xLog: this.xLog(),
+    yLog: this.yLog(),
     rules: this.rules(),
     yTitle: this.yTitle(),
   }));

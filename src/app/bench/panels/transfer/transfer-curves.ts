@@ -58,7 +58,8 @@ export function transferData(result: SolveResult | undefined): TransferData | un
     const values = outP.map((v, k) => v - outN[k]);
     all.unshift({ key: 'vod', label: 'vod', definition: `vod = v(${names.outP}) − v(${names.outN})`, unit: 'V', values, swing: spread(values) });
   }
-  const isFlat = (c: TransferCurve) => !(c.swing > FLAT * Math.max(1e-15, ...c.values.map(Math.abs)));
+  // Rounding leaves a node tied to a 0 V source at ±1e-16 V rather than 0: below 1 fV is no swing.
+  const isFlat = (c: TransferCurve) => !(c.swing > Math.max(FLAT * Math.max(...c.values.map(Math.abs)), 1e-15));
   const moving = all.filter((c) => !isFlat(c));
   const curves = [...moving.filter((c) => c.unit === 'V'), ...moving.filter((c) => c.unit === 'A')];
   const op = result?.op;
