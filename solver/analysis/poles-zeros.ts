@@ -28,6 +28,14 @@ import type { Phasor } from '../numeric/complex';
 export const MAX_POLES_UNKNOWNS = 400;
 /** A zero within this relative distance of a pole cancels it. */
 export const CANCEL_RELATIVE = 1e-6;
+
+/**
+ * Zeros beyond this many times the fastest pole are left out: a near-infinite zero of the bordered
+ * pencil comes back from the eigenvalue routine as a ± pair in the petahertz, which no first-order
+ * model speaks for and which would only puzzle the reader. (A zero 10⁴ times above every pole
+ * moves the response by less than 0.006° of phase anywhere below the fastest pole.)
+ */
+export const ZERO_BEYOND_FASTEST_POLE = 1e4;
 /** A zero closer to the origin than this fraction of the shift's rate scale is the origin. */
 export const ORIGIN_RELATIVE = 1e-9;
 /** Factors of the rate scale tried in turn as the zeros' shift (irrational, so no circuit sits on them by design). */
@@ -75,7 +83,10 @@ export function transferZeros(system: LinearSystem, transfer: TransferVectors, p
     // s = σ + 1/μ carries an absolute rounding of order eps·|σ|: a zero at the origin comes back
     // as ±1e-15·|σ|, and is reported as the 0 it is.
     const snapped = outcome.values.map((z) => (Math.hypot(z.re, z.im) <= ORIGIN_RELATIVE * scale ? { re: 0, im: 0 } : z));
-    return cancelAgainst(snapped, poles);
+    let fastest = 0;
+    for (const p of poles) fastest = Math.max(fastest, Math.hypot(p.re, p.im));
+    const near = fastest > 0 ? snapped.filter((z) => Math.hypot(z.re, z.im) <= ZERO_BEYOND_FASTEST_POLE * fastest) : snapped;
+    return cancelAgainst(near, poles);
   }
   return { ok: false };
 }

@@ -395,3 +395,43 @@ describe('diagnostics', () => {
     expect(r.errors[0].message).toContain(`at most ${MAX_POLES_UNKNOWNS}`);
   }, 60_000);
 });
+
+describe('zeros a first-order model cannot speak for', () => {
+  it('leaves out the petahertz ± pair a near-infinite zero of a cascoded pair comes back as', () => {
+    // Regression: a cascoded pair with follower outputs reported zeros at ±3.6e15 Hz beside its
+    // real ones (−456 MHz and the Cμ feedforward zero near gm/(2π·Cμ) ≈ 5 GHz).
+    const r = solveNetlist(`title cascoded pair with followers
+model qn: npn(is=1e-16, beta=120, va=80, cje=2p, cjc=0.6p, tauf=0.25n)
+vcc: vsrc(vcc, gnd) 10
+vcb: vsrc(cb, gnd) 4.5
+va: vsrc(bra, gnd) 2.5 ac=1
+vb: vsrc(brb, gnd) 2.5
+rga: res(bra, ina) 350
+rgb: res(brb, inb) 350
+q1: npn(c=ea, b=ina, e=tail) qn
+q2: npn(c=eb, b=inb, e=tail) qn
+q3: npn(c=ca, b=cb, e=ea) qn
+q4: npn(c=cb2, b=cb, e=eb) qn
+rca: res(vcc, ca) 8k
+rcb: res(vcc, cb2) 8k
+q5: npn(c=vcc, b=ca, e=outa) qn
+q6: npn(c=vcc, b=cb2, e=outb) qn
+rref: res(vcc, bias) 9.3k
+qr: npn(c=bias, b=bias, e=gnd) qn
+qt: npn(c=tail, b=bias, e=gnd) qn
+qsa: npn(c=outa, b=bias, e=gnd) qn area=0.5
+qsb: npn(c=outb, b=bias, e=gnd) qn area=0.5
+cla: cap(outa, gnd) 5p
+clb: cap(outb, gnd) 5p
+ports in=(va, vb) out=(outa, outb)
+analyze poles
+`);
+    expect(r.errors).toEqual([]);
+    const fastest = Math.max(...r.poles!.poles_hz.map((p) => Math.hypot(p.re, p.im)));
+    expect(fastest).toBeLessThan(1e9);
+    expect(r.poles!.zeros_hz.length).toBeGreaterThan(0);
+    // Nothing near the petahertz: every zero within 10⁴ times the fastest pole (below 10 THz here).
+    for (const z of r.poles!.zeros_hz) expect(Math.hypot(z.re, z.im)).toBeLessThan(1e13);
+    expect(r.poles!.zeros_hz.some((z) => z.re > 1e9 && z.re < 2e10)).toBe(true);
+  });
+});

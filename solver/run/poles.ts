@@ -22,7 +22,7 @@ export function polesConventions(zerosOf: string | undefined): string {
     '(voltage sources shorted, current sources open). ' +
     (zerosOf ? `Zeros: those of ${zerosOf}; a zero equal to a pole (a mode the transfer does not see) cancels it. ` : '') +
     'Complex frequencies s/2π in Hz, sorted by |s|, a conjugate pair with im > 0 first; q = |s|/(−2·Re s) of a complex pair ' +
-    '(negative in the right half-plane). Infinite ones (beyond 10¹² times the slowest time scale) are left out.'
+    '(negative in the right half-plane). Infinite ones (beyond 10¹² times the slowest time scale) are left out, and so are zeros beyond 10⁴ times the fastest pole.'
   );
 }
 

@@ -6,7 +6,7 @@
  */
 import { expect } from 'vitest';
 import type { SolveResult } from '../circuit/result';
-import { solveNetlist } from '../solve';
+import { solveNetlist } from '../run/solve-netlist';
 import { expectNearlyEqual } from './nearly-equal';
 
 export const K = 1.380649e-23;

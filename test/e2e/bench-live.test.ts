@@ -130,7 +130,7 @@ describe('the bench, live', () => {
     const page = await openBench('/bench?example=resistor-tail');
     await showTab(page, /Checks/);
     const checks = page.locator('nw-checks-panel');
-    await expect.poll(() => page.locator('nw-results-summary').textContent()).toMatch(/All 4 checks pass/);
+    await expect.poll(() => page.locator('nw-results-summary').textContent()).toMatch(/All 5 checks pass/);
 
     const rcLine = (await page.locator('.cm-line').allTextContents()).findIndex((t) => t.startsWith('param  rc')) + 1;
     expect(rcLine).toBeGreaterThan(0);
@@ -138,14 +138,14 @@ describe('the bench, live', () => {
     await waitForPainted(page);
     expect(await lineText(page, rcLine)).toContain('rc = 4k');
     // Halving RC halves adm: 42.6 dB − 6 dB fails `a0 >= 40` (Sedra & Smith, Microelectronic Circuits, 7th ed., differential half circuit: adm = −gm·RC, from memory).
-    await expect.poll(() => page.locator('nw-results-summary').textContent()).toMatch(/1 of 4 checks fail/);
+    await expect.poll(() => page.locator('nw-results-summary').textContent()).toMatch(/1 of 5 checks fail/);
     const failing = checks.locator('.row.failing');
     await expect.poll(() => failing.count()).toBe(1);
     expect(await failing.textContent()).toContain('a0 >= 40');
 
     await editOnLine(page, rcLine, '4k', '9k');
     await waitForPainted(page);
-    await expect.poll(() => page.locator('nw-results-summary').textContent()).toMatch(/All 4 checks pass/);
+    await expect.poll(() => page.locator('nw-results-summary').textContent()).toMatch(/All 5 checks pass/);
     expect(await checks.locator('.row.failing').count()).toBe(0);
 
     // Clicking a check puts the editor cursor on its line.

@@ -111,7 +111,7 @@ describe('the bench shows the current text\'s results', () => {
   it('says q1 and q2 are saturated when the tail resistor is typed in milliohms', async () => {
     const page = await openBench('/bench?example=resistor-tail');
     const summary = page.locator('nw-results-summary');
-    await expect.poll(() => summary.textContent()).toMatch(/All 4 checks pass/);
+    await expect.poll(() => summary.textContent()).toMatch(/All 5 checks pass/);
     await expect.poll(() => page.locator('nw-bias-panel').textContent()).toMatch(/All \d+ devices in their intended regions/);
 
     await editOnLine(page, await lineStartingWith(page, 'param  rt'), '1.8k', '4.65m');

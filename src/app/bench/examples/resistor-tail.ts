@@ -35,13 +35,16 @@ clb:   cap(outb, gnd) 5p
 ports   in=(va, vb) out=(outa, outb)
 analyze ac from 10 Hz to 1 GHz per decade 20
 analyze temp over -40 27 85             # the tail current (2.5 V − VBE)/rt follows VBE: do the checks hold?
+analyze noise out outa outb in va from 10 Hz to 10 MHz per decade 10   # next to the bridge's own √(4kT·700 Ω) = 3.4 nV/√Hz
 
 measure a0   = db(adm)
 measure f3   = corner(adm)
 measure vmin = min(vce(q1), vce(q2))
+measure vn   = noise_in(1k)             # input-referred noise density at 1 kHz
 check   ic(q1) = 500u ± 10%
 check   a0 >= 40
 check   vmin > 1
+check   vn < 4.5n                       # the amplifier adds little to the bridge's noise
 check   cmrr_db >= 30                   # a resistor tail gives only tens of dB
 `,
 };
