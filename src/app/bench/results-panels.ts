@@ -40,38 +40,38 @@ type OptionalTab = (typeof OPTIONAL_TABS)[number];
     @if (stale()) { <p class="stale-note" [id]="noteId" role="note">These figures are from an earlier version of the netlist.</p> }
     <mat-tab-group class="panels" [class.stale]="stale() || slow()" [attr.aria-describedby]="stale() ? noteId : null" animationDuration="0ms" mat-stretch-tabs="false" mat-align-tabs="start">
       <mat-tab label="Bias">
-        <ng-template matTabContent><div class="panel"><nw-bias-panel [result]="result()" [stale]="stale()" /></div></ng-template>
+        <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Bias results"><nw-bias-panel [result]="result()" [stale]="stale()" /></div></ng-template>
       </mat-tab>
       <mat-tab label="Response">
-        <ng-template matTabContent><div class="panel"><nw-response-panel [result]="result()" /></div></ng-template>
+        <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Response results"><nw-response-panel [result]="result()" /></div></ng-template>
       </mat-tab>
       <mat-tab label="Modes">
-        <ng-template matTabContent><div class="panel"><nw-modes-panel [result]="result()" /></div></ng-template>
+        <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Modes results"><nw-modes-panel [result]="result()" /></div></ng-template>
       </mat-tab>
       <!-- The analyses the text asks for get a tab each; the others wait under "Other analyses". -->
       @if (asked().has('transfer')) {
         <mat-tab label="Transfer">
-          <ng-template matTabContent><div class="panel"><nw-transfer-panel [result]="result()" /></div></ng-template>
+          <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Transfer results"><nw-transfer-panel [result]="result()" /></div></ng-template>
         </mat-tab>
       }
       @if (asked().has('sweeps')) {
         <mat-tab label="Sweeps">
-          <ng-template matTabContent><div class="panel"><nw-sweeps-panel [result]="sweepsResult()" [measureLines]="lines().measures" [params]="params()" [stale]="stale() || pending()" [updating]="pending()" /></div></ng-template>
+          <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Sweeps results"><nw-sweeps-panel [result]="sweepsResult()" [measureLines]="lines().measures" [params]="params()" [stale]="stale() || pending()" [updating]="pending()" /></div></ng-template>
         </mat-tab>
       }
       @if (asked().has('mismatch')) {
         <mat-tab label="Mismatch">
-          <ng-template matTabContent><div class="panel"><nw-mismatch-panel [result]="result()" [lines]="lines()" /></div></ng-template>
+          <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Mismatch results"><nw-mismatch-panel [result]="result()" [lines]="lines()" /></div></ng-template>
         </mat-tab>
       }
       @if (asked().has('noise')) {
         <mat-tab label="Noise">
-          <ng-template matTabContent><div class="panel"><nw-noise-panel [result]="result()" /></div></ng-template>
+          <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Noise results"><nw-noise-panel [result]="result()" /></div></ng-template>
         </mat-tab>
       }
       @if (asked().has('poles')) {
         <mat-tab label="Poles">
-          <ng-template matTabContent><div class="panel"><nw-poles-panel [result]="result()" /></div></ng-template>
+          <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Poles results"><nw-poles-panel [result]="result()" /></div></ng-template>
         </mat-tab>
       }
       <mat-tab>
@@ -79,7 +79,7 @@ type OptionalTab = (typeof OPTIONAL_TABS)[number];
           Checks &amp; measures
           @if (failedChecks() > 0) { <span class="badge" [class.fail]="!stale()" [class.old]="stale()" [attr.aria-label]="failedChecks() + (stale() ? ' failing in an earlier version' : ' failing')">{{ failedChecks() }} fail</span> }
         </ng-template>
-        <ng-template matTabContent><div class="panel">
+        <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Checks and measures">
           <nw-checks-panel [result]="result()" [measureLines]="lines().measures" [stale]="stale()" (lineSelected)="lineSelected.emit($event)" />
           <h2 class="sub">Measures</h2>
           <nw-measures-panel [result]="result()" [measureLines]="lines().measures" (lineSelected)="lineSelected.emit($event)" />
@@ -95,7 +95,7 @@ type OptionalTab = (typeof OPTIONAL_TABS)[number];
       </mat-tab>
       @if (notAsked().length > 0) {
         <mat-tab label="Other analyses">
-          <ng-template matTabContent><div class="panel others">
+          <ng-template matTabContent><div class="panel others" tabindex="0" role="region" aria-label="Other analyses, not in this netlist yet">
             <p class="others-intro">Not in this netlist yet. Each one below says how to ask for it.</p>
             @for (kind of notAsked(); track kind) {
               <section [attr.aria-labelledby]="'nw-other-' + kind">
@@ -122,7 +122,9 @@ type OptionalTab = (typeof OPTIONAL_TABS)[number];
     .panels.stale { border-color: #c9a24a; background-image: repeating-linear-gradient(135deg, transparent 0 10px, rgba(201, 162, 74, 0.07) 10px 20px); }
     .panels.stale ::ng-deep .tag.pass { color: var(--mat-sys-on-surface-variant); background: transparent; border: 1px dashed var(--mat-sys-outline); }
     .stale-note { margin: 0 0 4px; padding: 2px 8px; font-size: 0.8125rem; color: #6b4600; background: #fbecc8; border-radius: 4px; }
+    /* Focusable, so a keyboard can scroll a long panel (the tab body is the scroller). */
     .panel { padding: 10px 12px; }
+    .panel:focus-visible { outline: 2px solid var(--mat-sys-tertiary); outline-offset: -2px; }
     /* Tighter tabs: seven fit the results column of a 1280 px screen without paging arrows. */
     :host ::ng-deep .panels .mat-mdc-tab { padding: 0 12px; min-width: 0; }
     :host ::ng-deep .panels .mat-mdc-tab-body-wrapper { flex: 1 1 auto; min-height: 0; }
