@@ -1,7 +1,7 @@
 /**
  * The Noise and Poles tabs in a real browser, on the demo netlists that ask for them: the
  * resistor-tail pair's noise (the rms figures are the CLI's measures, the bridge resistors lead
- * the contributors) and the cascoded pair's poles (the table's first pole is the CLI's pole(1));
+ * the contributors) and the cascoded pair's poles, asked for (the table's first pole is the CLI's pole(1));
  * axe finds nothing serious; screenshots at 1280×800 and 1920×1080 land in test-results/.
  */
 import { readFileSync } from 'node:fs';
@@ -13,7 +13,7 @@ import { CASCODED_FOLLOWER } from '../../src/app/bench/examples/cascoded-followe
 import { RESISTOR_TAIL } from '../../src/app/bench/examples/resistor-tail';
 import { ROOT } from '../../tools/postgres';
 import { launchBrowser, RESULTS_DIR, type Browser } from '../support/browser';
-import { openWatchedBench } from './bench-support';
+import { openWatchedBench, replaceNetlist, waitForPainted } from './bench-support';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -73,8 +73,12 @@ describe('the Noise and Poles tabs', () => {
   });
 
   it('lists the cascoded pair\'s poles with the CLI\'s dominant pole first, and maps them', { timeout: 120_000 }, async () => {
-    const cli = solveNetlist(CASCODED_FOLLOWER.text);
+    // The demo with its poles asked for, and its dominant pole measured.
+    const text = CASCODED_FOLLOWER.text.replace(/^analyze vary .*$/m, 'analyze poles').replace(/^measure a0 .*$/m, '$&\nmeasure p1 = pole(1)');
+    const cli = solveNetlist(text);
     const page = await openWatchedBench(browser.context, inject('baseUrl') + '/bench?example=cascoded-follower');
+    await replaceNetlist(page, text);
+    await waitForPainted(page);
     await page.getByRole('tab', { name: 'Poles' }).click();
     const panel = page.locator('nw-poles-panel');
     const table = panel.locator('table');

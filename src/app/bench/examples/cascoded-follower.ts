@@ -47,17 +47,14 @@ clb:   cap(outb, gnd) 5p
 ports   in=(va, vb) out=(outa, outb)
 analyze ac from 10 Hz to 1 GHz per decade 20
 analyze vary rc over 6k 8k 10k          # gain against bandwidth and headroom
-analyze poles                           # the dominant pole, and the zeros of adm
 
 measure a0    = db(adm)
 measure f3    = corner(adm)
 measure shift = v(ca) - v(outa)
 measure vmin  = min(vce(q1), vce(q3))
-measure p1    = pole(1)                  # dominant pole, Hz
 check   a0 >= 40
 check   cmrr_db >= 60
 check   vmin > 0.5                      # pair and cascode both keep headroom
-check   p1 > 10e6                       # cascodes keep the bandwidth above 10 MHz
 check   shift = 0.7 ± 15%
 `,
 };
