@@ -70,9 +70,7 @@ export function solveWithOutline(text: string, options: SolveOptions = {}): Outl
       skipped.push(...parsed.requests.analyses.filter((a) => a.kind === 'mismatch' && options.skip?.includes(a.kind) && !mismatchPrecheck(circuit, a).some((d) => d.severity === 'error')));
     }
   } catch (err) {
-    const message = err instanceof Error ? err.message : String(err);
-    result = emptyResult('', 27);
-    result.errors.push(diagnostic('error', 'internal-error', { line: 1, col: 1 }, `The solver hit an internal error: ${message}.`, 'this is a bug in Nodewright; please report it with the netlist'));
+    result = internalError(err);
   }
   const outline = parsed?.outline ?? emptyOutline();
   if (!rest) return { result: finalize(result), outline, skipped };
@@ -85,11 +83,16 @@ function guarded(stage: () => SolveResult): SolveResult {
   try {
     return stage();
   } catch (err) {
-    const message = err instanceof Error ? err.message : String(err);
-    const result = emptyResult('', 27);
-    result.errors.push(diagnostic('error', 'internal-error', { line: 1, col: 1 }, `The solver hit an internal error: ${message}.`, 'this is a bug in Nodewright; please report it with the netlist'));
-    return result;
+    return internalError(err);
   }
+}
+
+/** The result of a solve that hit an engine defect: nothing but the error saying so. */
+function internalError(err: unknown): SolveResult {
+  const message = err instanceof Error ? err.message : String(err);
+  const result = emptyResult('', 27);
+  result.errors.push(diagnostic('error', 'internal-error', { line: 1, col: 1 }, `The solver hit an internal error: ${message}.`, 'this is a bug in Nodewright; please report it with the netlist'));
+  return result;
 }
 
 /** Every number finite, and every message through the one helper that shortens long user tokens. */
