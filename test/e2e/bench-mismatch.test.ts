@@ -14,7 +14,7 @@ import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { RESISTOR_PAIR } from '../../solver/testing/pair-netlist';
 import { launchBrowser, RESULTS_DIR, type Browser } from '../support/browser';
-import { openWatchedBench, replaceNetlist, waitForPainted, type WatchedPage } from './bench-support';
+import { focusEditor, openWatchedBench, replaceNetlist, waitForPainted, type WatchedPage } from './bench-support';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -132,7 +132,14 @@ describe('the Mismatch tab', () => {
     // Run starts it again (and a new text would have stopped it the same way).
     await panel.getByRole('button', { name: 'Run' }).click();
     await panel.locator('mat-progress-bar').waitFor({ state: 'attached' });
-    await replaceNetlist(page, PAIR('runs 5000 seed 3 beta 5% is 2% res 0.5%'));
+    // The user clears the editor, sees it solved empty, then pastes a new text: the tab they are
+    // on stays through the empty text, and says the runs were stopped.
+    await focusEditor(page);
+    await page.keyboard.press('Control+A');
+    await page.keyboard.press('Delete');
+    await waitForPainted(page);
+    expect(await page.getByRole('tab', { name: 'Mismatch' }).getAttribute('aria-selected')).toBe('true');
+    await page.keyboard.insertText(PAIR('runs 5000 seed 3 beta 5% is 2% res 0.5%'));
     await waitForPainted(page);
     await expect.poll(() => panel.locator('.note.stale').textContent().catch(() => '')).toContain('The netlist changed while the runs were solving');
     expect(await panel.locator('mat-progress-bar').count()).toBe(0);

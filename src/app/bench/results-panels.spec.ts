@@ -29,6 +29,24 @@ describe('ResultsPanels', () => {
     expect(typing.tabs()).toContain('Sweeps');
   });
 
+  it('keeps the tab the user is on while the text stops asking for it, until another tab is chosen', async () => {
+    const { fixture, el, tabs } = await render(`${RESISTOR_TAIL_PAIR}analyze noise out outa in va from 10 Hz to 1 MHz per decade 5\n`);
+    const tab = (name: string) => [...el.querySelectorAll<HTMLElement>('[role=tab]')].find((t) => t.textContent!.includes(name))!;
+    tab('Noise').click();
+    await fixture.whenStable();
+    // Select all and delete, before a paste: the text asks for nothing.
+    const empty = solveWithOutline('', { skip: ['mismatch'] });
+    fixture.componentRef.setInput('result', empty.result);
+    fixture.componentRef.setInput('lines', { measures: [], checks: [], analyses: [] });
+    await fixture.whenStable();
+    expect(tabs()).toContain('Noise');
+    expect(tab('Noise').getAttribute('aria-selected')).toBe('true');
+    expect(el.querySelector('nw-noise-panel')?.textContent).toContain('No noise analysis');
+    tab('Bias').click();
+    await fixture.whenStable();
+    expect(tabs()).not.toContain('Noise');
+  });
+
   it('says under "Other analyses" how to ask for each analysis the text lacks', async () => {
     const { el, fixture } = await render(`${RESISTOR_TAIL_PAIR}analyze temp over -40 27 85\n`);
     const other = [...el.querySelectorAll<HTMLElement>('[role=tab]')].find((t) => t.textContent!.includes('Other analyses'))!;

@@ -4,7 +4,7 @@
  * for yet under "Other analyses" with how to ask) and the standing caution. The bench and the shared view both render it, from the
  * same solver, so a reviewer sees the very numbers the author saw.
  */
-import { ChangeDetectionStrategy, Component, computed, input, linkedSignal, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input, linkedSignal, output, signal } from '@angular/core';
 import { MatTabsModule } from '@angular/material/tabs';
 import type { SolveResult } from '../../../solver';
 import { Cautions } from '../core/cautions';
@@ -28,6 +28,8 @@ let noteIds = 0;
 /** The tabs of analyses a netlist may or may not ask for, in tab order. */
 const OPTIONAL_TABS = ['transfer', 'sweeps', 'mismatch', 'noise', 'poles'] as const;
 type OptionalTab = (typeof OPTIONAL_TABS)[number];
+/** Each optional tab's label. */
+const TAB_LABELS: Record<OptionalTab, string> = { transfer: 'Transfer', sweeps: 'Sweeps', mismatch: 'Mismatch', noise: 'Noise', poles: 'Poles' };
 
 @Component({
   selector: 'nw-results-panels',
@@ -38,7 +40,8 @@ type OptionalTab = (typeof OPTIONAL_TABS)[number];
       [status]="status()" [slow]="slow()" [solveMs]="solveMs()" [failure]="failure()"
       (cancel)="cancel.emit()" />
     @if (stale()) { <p class="stale-note" [id]="noteId" role="note">These figures are from an earlier version of the netlist.</p> }
-    <mat-tab-group class="panels" [class.stale]="stale() || slow()" [attr.aria-describedby]="stale() ? noteId : null" animationDuration="0ms" mat-stretch-tabs="false" mat-align-tabs="start">
+    <mat-tab-group class="panels" [class.stale]="stale() || slow()" [attr.aria-describedby]="stale() ? noteId : null" animationDuration="0ms" mat-stretch-tabs="false" mat-align-tabs="start"
+      (selectedTabChange)="tabChosen($event.tab.textLabel)">
       <mat-tab label="Bias">
         <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Bias results"><nw-bias-panel [result]="result()" [stale]="stale()" /></div></ng-template>
       </mat-tab>
@@ -49,28 +52,28 @@ type OptionalTab = (typeof OPTIONAL_TABS)[number];
         <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Modes results"><nw-modes-panel [result]="result()" /></div></ng-template>
       </mat-tab>
       <!-- The analyses the text asks for get a tab each; the others wait under "Other analyses". -->
-      @if (asked().has('transfer')) {
-        <mat-tab label="Transfer">
+      @if (shown().has('transfer')) {
+        <mat-tab [label]="labels.transfer">
           <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Transfer results"><nw-transfer-panel [result]="result()" /></div></ng-template>
         </mat-tab>
       }
-      @if (asked().has('sweeps')) {
-        <mat-tab label="Sweeps">
+      @if (shown().has('sweeps')) {
+        <mat-tab [label]="labels.sweeps">
           <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Sweeps results"><nw-sweeps-panel [result]="sweepsResult()" [measureLines]="lines().measures" [params]="params()" [stale]="stale() || pending()" [updating]="pending()" /></div></ng-template>
         </mat-tab>
       }
-      @if (asked().has('mismatch')) {
-        <mat-tab label="Mismatch">
+      @if (shown().has('mismatch')) {
+        <mat-tab [label]="labels.mismatch">
           <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Mismatch results"><nw-mismatch-panel [result]="result()" [lines]="lines()" /></div></ng-template>
         </mat-tab>
       }
-      @if (asked().has('noise')) {
-        <mat-tab label="Noise">
+      @if (shown().has('noise')) {
+        <mat-tab [label]="labels.noise">
           <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Noise results"><nw-noise-panel [result]="result()" /></div></ng-template>
         </mat-tab>
       }
-      @if (asked().has('poles')) {
-        <mat-tab label="Poles">
+      @if (shown().has('poles')) {
+        <mat-tab [label]="labels.poles">
           <ng-template matTabContent><div class="panel" tabindex="0" role="region" aria-label="Poles results"><nw-poles-panel [result]="result()" /></div></ng-template>
         </mat-tab>
       }
@@ -168,6 +171,7 @@ export class ResultsPanels {
   /** A check or measure was chosen: its line in the netlist. */
   readonly lineSelected = output<number>();
 
+  protected readonly labels = TAB_LABELS;
   protected readonly noteId = `nw-stale-note-${++noteIds}`;
   /** The optional tabs the text asks for (by its analyze lines, or the result's members). */
   protected readonly asked = computed(() => {
@@ -196,6 +200,21 @@ export class ResultsPanels {
     return r && this.pending() ? { ...r, ...held } : r;
   });
   protected readonly asksSensitivity = computed(() => this.lines().analyses.some((a) => a.kind === 'sensitivity'));
-  protected readonly notAsked = computed(() => OPTIONAL_TABS.filter((t) => !this.asked().has(t)));
+  /**
+   * The optional tab the user is on. It stays while the text stops asking for it (a select-all
+   * and delete before a paste, an analyze line being retyped), showing how to ask, so the view
+   * is not pulled from under the user; it goes when they choose another tab.
+   */
+  private readonly kept = signal<OptionalTab | undefined>(undefined);
+  /** The optional tabs on screen: those asked for, and the one the user is on. */
+  protected readonly shown = computed(() => {
+    const kept = this.kept();
+    return kept && !this.asked().has(kept) ? new Set([...this.asked(), kept]) : this.asked();
+  });
+  protected readonly notAsked = computed(() => OPTIONAL_TABS.filter((t) => !this.shown().has(t)));
+
+  protected tabChosen(label: string): void {
+    this.kept.set(OPTIONAL_TABS.find((t) => TAB_LABELS[t] === label));
+  }
   protected readonly failedChecks = computed(() => this.result()?.checks.filter((c) => !c.pass).length ?? 0);
 }
