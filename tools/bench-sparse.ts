@@ -22,7 +22,6 @@ import { performance } from 'node:perf_hooks';
 import { complex, lusolve, slu, sparse, type Complex } from 'mathjs';
 import { createAcSolver } from '../solver/analysis/ac-solve';
 import type { Excitation, LinearSystem, OperatingPoint } from '../solver/analysis/engine-api';
-import { buildLayout } from '../solver/analysis/mna';
 import { NewtonWorkspace } from '../solver/analysis/newton';
 import { isOpFailure, solveOperatingPoint, solveWithWorkspace } from '../solver/analysis/operating-point';
 import { linearize, sparseOf } from '../solver/analysis/small-signal';
@@ -174,10 +173,9 @@ export function benchSparse(chain: ChainFactory): boolean {
 
   // The 162-transistor operating point.
   const { circuit, transistors } = chain(54);
-  const layout = buildLayout(circuit);
   const [opSparseUs, opDenseUs] = pairUs(
-    () => solveWithWorkspace(new NewtonWorkspace(circuit, layout)),
-    () => solveWithWorkspace(new NewtonWorkspace(circuit, layout, 'dense')),
+    () => solveWithWorkspace(new NewtonWorkspace(circuit)),
+    () => solveWithWorkspace(new NewtonWorkspace(circuit, 'dense')),
     2000, 100,
   );
   const opMs = opSparseUs / 1000;
@@ -209,7 +207,7 @@ export function benchSparse(chain: ChainFactory): boolean {
       () => { acSparse.factor(g, im); br.fill(1); bi.fill(0); acSparse.solve(br, bi); },
       400, 200, 200,
     );
-    const ws = new NewtonWorkspace(c, buildLayout(c));
+    const ws = new NewtonWorkspace(c);
     ws.prepare(1, c.options.minG);
     ws.values.set(ws.linValues);
     ws.b.set(ws.bLin);

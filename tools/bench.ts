@@ -20,7 +20,6 @@ import { complex, lusolve, matrix, type Complex } from 'mathjs';
 import { LuDecomposition, Matrix } from 'ml-matrix';
 import { createAcSolver } from '../solver/analysis/ac-solve';
 import type { Excitation, LinearSystem, OperatingPoint } from '../solver/analysis/engine-api';
-import { buildLayout } from '../solver/analysis/mna';
 import { NewtonWorkspace } from '../solver/analysis/newton';
 import { isOpFailure, solveOperatingPoint } from '../solver/analysis/operating-point';
 import { linearize } from '../solver/analysis/small-signal';
@@ -192,7 +191,7 @@ function benchOne(stages: number): Row {
   }, 600, n > 150 ? 20 : 500);
 
   // The DC hot path: our real LU against ml-matrix's on the Newton matrix at the solution.
-  const ws = new NewtonWorkspace(circuit, buildLayout(circuit));
+  const ws = new NewtonWorkspace(circuit);
   ws.prepare(1, circuit.options.minG);
   const a = Float64Array.from(ws.linValues);
   const bDc = Float64Array.from(ws.bLin);

@@ -6,8 +6,7 @@
 import { diagnostic, type Diagnostic } from '../circuit/diagnostic';
 import type { Circuit, CurrentSource, Part, VoltageSource } from '../circuit/types';
 import type { DcSweepResult, OperatingPoint } from './engine-api';
-import { buildLayout } from './mna';
-import { NewtonWorkspace } from './newton';
+import { borrowWorkspace, releaseWorkspace } from './newton';
 import { isOpFailure, solveWithWorkspace } from './operating-point';
 
 /**
@@ -28,7 +27,7 @@ export function dcSweep(circuit: Circuit, source: string, values: readonly numbe
   const parts: Part[] = circuit.parts.slice();
   parts[index] = swept;
   const sweptCircuit: Circuit = { ...circuit, parts };
-  const ws = new NewtonWorkspace(sweptCircuit, buildLayout(sweptCircuit));
+  const ws = borrowWorkspace(sweptCircuit);
   let previous: Float64Array | undefined = start && start.x.length === ws.n ? start.x : undefined;
   for (const value of values) {
     if (!Number.isFinite(value)) {
@@ -46,6 +45,7 @@ export function dcSweep(circuit: Circuit, source: string, values: readonly numbe
     result.x.push(value);
     result.points.push(op.report);
   }
+  releaseWorkspace(ws);
   return result;
 }
 

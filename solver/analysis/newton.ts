@@ -8,7 +8,8 @@
  * step limited in this evaluation, and the residual of every row within rel_tol of the currents
  * flowing in it.
  *
- * The matrix lives on the circuit's sparse pattern (./mna.ts circuitPattern): stamping, the
+ * The matrix lives on the circuit's sparse pattern (./mna.ts circuitPattern, kept per shape by
+ * ./circuit-shape.ts): stamping, the
  * residual and the copy of the linear part are O(nonzeros), and the real solver
  * (numeric/linear-solver.ts: dense for tiny circuits, else the sparse LU refactoring on its last
  * pivot order) reuses the pattern's symbolic analysis across iterations, attempts and sweeps.
@@ -28,7 +29,8 @@ import { checkTopology } from '../circuit/topology';
 import type { Circuit } from '../circuit/types';
 import { createRealSolver, type RealLinearSolver, type SolverKind } from '../numeric/linear-solver';
 import type { SparsePattern } from '../numeric/sparse-pattern';
-import { circuitPattern, PatternValues, stampLinear, type MnaLayout } from './mna';
+import { circuitShape } from './circuit-shape';
+import { PatternValues, stampLinear, type MnaLayout } from './mna';
 import { DeviceSet } from './nonlinear-devices';
 
 /** Absolute residual floor in amperes, under which a row counts as balanced whatever its scale. */
@@ -68,11 +70,18 @@ export class NewtonWorkspace {
   dampedAt = -1;
   private topology: boolean | undefined;
 
-  constructor(readonly circuit: Circuit, readonly layout: MnaLayout, solverKind: SolverKind = 'auto') {
+  readonly layout: MnaLayout;
+
+  private current: Circuit;
+
+  constructor(circuit: Circuit, solverKind: SolverKind = 'auto') {
+    this.current = circuit;
+    const { layout, pattern } = circuitShape(circuit);
     const n = layout.size;
+    this.layout = layout;
     this.n = n;
     this.devices = new DeviceSet(circuit, layout);
-    this.pattern = circuitPattern(circuit, layout, this.devices);
+    this.pattern = pattern;
     this.devices.bind(this.pattern);
     this.linValues = new Float64Array(this.pattern.nnz);
     this.bLin = new Float64Array(n);
@@ -86,6 +95,22 @@ export class NewtonWorkspace {
     this.rowMax = new Float64Array(n);
     this.savedDiagonal = new Float64Array(n);
     this.bStep = new Float64Array(n);
+  }
+
+  /** The circuit solved (see {@link rebind}). */
+  get circuit(): Circuit {
+    return this.current;
+  }
+
+  /**
+   * Points the workspace at `circuit`, of the same shape (same parts in the same order on the
+   * same nodes; values, options and temperature may differ): the devices take its parameters,
+   * the arrays, the pattern and the LU (with its last pivot order) are kept.
+   */
+  rebind(circuit: Circuit): void {
+    this.current = circuit;
+    this.devices.rebind(circuit);
+    this.topology = undefined;
   }
 
   /**
@@ -150,6 +175,33 @@ export class NewtonWorkspace {
     for (let i = 0; i < nodes; i++) values[diagonal[i]] = savedDiagonal[i];
     return outcome;
   }
+}
+
+/** Idle workspaces by shape (the pattern is the shape's identity), for {@link borrowWorkspace}. */
+const idle = new WeakMap<SparsePattern, NewtonWorkspace[]>();
+/** Idle workspaces kept per shape: one per solve that may be open at once (a search inside a run). */
+const IDLE_PER_SHAPE = 4;
+
+/**
+ * A workspace for `circuit`: an idle one of its shape rebound to it, else a new one. A sweep, a
+ * mismatch analysis or a search solves one shape hundreds of times; building the workspace (its
+ * devices, arrays and LU) was a fifth of a mismatch run and most of its garbage. Hand it back with
+ * {@link releaseWorkspace} when the solve is done and nothing holds it (one not handed back is
+ * simply collected).
+ */
+export function borrowWorkspace(circuit: Circuit): NewtonWorkspace {
+  const pool = idle.get(circuitShape(circuit).pattern);
+  const ws = pool?.pop();
+  if (!ws) return new NewtonWorkspace(circuit);
+  ws.rebind(circuit);
+  return ws;
+}
+
+/** Hands a workspace from {@link borrowWorkspace} back for the next solve of its shape. */
+export function releaseWorkspace(ws: NewtonWorkspace): void {
+  let pool = idle.get(ws.pattern);
+  if (!pool) idle.set(ws.pattern, (pool = []));
+  if (pool.length < IDLE_PER_SHAPE && !pool.includes(ws)) pool.push(ws);
 }
 
 /** {@link NewtonWorkspace.step}'s answer when no step came out finite. */

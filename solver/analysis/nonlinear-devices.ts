@@ -100,6 +100,35 @@ export class DeviceSet {
     this.initialGuess();
   }
 
+  /**
+   * Takes the parameters of `circuit`'s devices, a circuit of the same shape as the one this set
+   * was built for (same parts in the same order on the same nodes; values and temperature may
+   * differ): the rows, slots and objects are kept, so a mismatch run or a sweep value costs no
+   * new device objects. The state goes back to the cold-start guesses.
+   */
+  rebind(circuit: Circuit): void {
+    const t = circuit.options.temp;
+    let kb = 0;
+    let km = 0;
+    let kd = 0;
+    for (const part of circuit.parts) {
+      if (part.kind === 'npn' || part.kind === 'pnp') {
+        const q = this.bjts[kb++];
+        q.part = part;
+        q.p = bjtParams(part, t);
+      } else if (part.kind === 'nmos' || part.kind === 'pmos') {
+        const m = this.mos[km++];
+        m.part = part;
+        m.p = mosParams(part);
+      } else if (part.kind === 'diode') {
+        const d = this.diodes[kd++];
+        d.part = part;
+        d.p = diodeParams(part, t);
+      }
+    }
+    this.initialGuess();
+  }
+
   get count(): number {
     return this.bjts.length + this.mos.length + this.diodes.length;
   }

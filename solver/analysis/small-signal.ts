@@ -12,16 +12,15 @@ import type { Circuit } from '../circuit/types';
 import { bjtCpi, bjtSmallSignal } from '../devices/bjt';
 import { SparsePattern } from '../numeric/sparse-pattern';
 import type { LinearSystem, OperatingPoint, SparseSystem } from './engine-api';
-import { buildLayout, circuitPattern, PatternValues, stampConductance, stampLinear, type MnaLayout, type StampSink } from './mna';
+import { borrowWorkspace, releaseWorkspace } from './newton';
+import { PatternValues, stampConductance, stampLinear, type MnaLayout, type StampSink } from './mna';
 import { DeviceSet } from './nonlinear-devices';
 
 /** Builds the small-signal system of `circuit` at `op`, on the circuit's sparse pattern. */
 export function linearize(circuit: Circuit, op: OperatingPoint): LinearSystem {
-  const layout = buildLayout(circuit);
-  const n = layout.size;
-  const devices = new DeviceSet(circuit, layout);
-  const pattern = circuitPattern(circuit, layout, devices);
-  devices.bind(pattern);
+  // A DC workspace of the circuit's shape lends its devices, bound to the pattern.
+  const ws = borrowWorkspace(circuit);
+  const { layout, pattern, devices, n } = ws;
   const G = new PatternValues(pattern);
   const C = new PatternValues(pattern);
   const minG = Number.isFinite(circuit.options.minG) && circuit.options.minG > 0 ? circuit.options.minG : 0;
@@ -30,8 +29,9 @@ export function linearize(circuit: Circuit, op: OperatingPoint): LinearSystem {
   const x = op.x.length === n ? op.x : new Float64Array(n);
   devices.stateFrom(x);
   // The companion stamp without limiting is exactly the Jacobian at x; its current part is dropped.
-  devices.stamp(x, G.values, new Float64Array(n), false);
+  devices.stamp(x, G.values, ws.b, false);
   stampDeviceCapacitances(devices, C);
+  releaseWorkspace(ws);
   return linearSystem(layout, sourceMap(circuit, layout), { pattern, g: G.values, c: C.values });
 }
 

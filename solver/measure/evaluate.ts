@@ -6,7 +6,7 @@
  * as a finite real number; anything else (a complex value, a curve, an unknown name, a function
  * used on the wrong kind of device…) is an error diagnostic on the statement's line.
  */
-import type { MathNode } from 'mathjs';
+import type { EvalFunction, MathNode } from 'mathjs';
 import type { CheckRequest, MeasureRequest } from '../circuit/analyses';
 import { diagnostic, type Diagnostic, type SourceLoc } from '../circuit/diagnostic';
 import type { CheckResult } from '../circuit/result';
@@ -43,6 +43,32 @@ function markCurveNames(node: MathNode): MathNode {
     }
     return child;
   });
+}
+
+/** An expression parsed and compiled once, with the names it reads. */
+interface CompiledExpression {
+  compiled: EvalFunction;
+  symbols: string[];
+}
+
+/**
+ * Expressions compiled so far, by text. A sweep or a mismatch analysis evaluates the same few
+ * expressions hundreds of times over different scopes; parsing and compiling them each time was
+ * a third of a mismatch run. Bounded: cleared when full (an editing session makes new texts).
+ */
+const compiledCache = new Map<string, CompiledExpression>();
+const COMPILED_CACHE_SIZE = 500;
+
+function compiledExpression(expr: string): CompiledExpression {
+  let hit = compiledCache.get(expr);
+  if (!hit) {
+    const node = markCurveNames(measureMath.parse(expr));
+    const symbols = node.filter((n) => (n as unknown as { type: string }).type === 'SymbolNode').map((n) => (n as unknown as { name: string }).name);
+    hit = { compiled: node.compile(), symbols };
+    if (compiledCache.size >= COMPILED_CACHE_SIZE) compiledCache.clear();
+    compiledCache.set(expr, hit);
+  }
+  return hit;
 }
 
 /** Reads a mathjs value as a finite real number, or explains why it is not one. */
@@ -120,13 +146,12 @@ export function evaluateMeasures(measureRequests: MeasureRequest[], checkRequest
   const scopeNames = () => [...scope.keys()].filter((k) => typeof scope.get(k) !== 'function');
 
   const evaluate = (what: string, expr: string): number => {
-    const node = markCurveNames(measureMath.parse(expr));
+    const { compiled, symbols } = compiledExpression(expr);
     // A failed measure is absent from the scope, and mathjs would read a missing `g` or `h` as
     // a unit (gram, hour): what uses a failed measure is its follow-on, said nothing about.
-    const uses = node.filter((n) => (n as unknown as { type: string }).type === 'SymbolNode');
-    const dependency = uses.find((n) => failed.has((n as unknown as { name: string }).name));
-    if (dependency) throw new FollowOnError(`the measure ${(dependency as unknown as { name: string }).name}`);
-    return toMeasureValue(what, node.compile().evaluate(scope));
+    const dependency = symbols.find((name) => failed.has(name));
+    if (dependency) throw new FollowOnError(`the measure ${dependency}`);
+    return toMeasureValue(what, compiled.evaluate(scope));
   };
 
   for (const m of measureRequests) {

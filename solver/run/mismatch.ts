@@ -5,8 +5,8 @@
  * `cap`, an absolute one (volts) for `vth` — re-solves the operating point and the ports,
  * evaluates the measures and checks, and finds the input offset `vos`: the DC differential input
  * that brings the differential output to zero (single-ended: back to its value without mismatch),
- * by solving — a secant search on re-solved operating points, started from the linear guess
- * −vod/adm — not by the linear guess alone.
+ * by solving — a bracketing search on re-solved operating points, from the linear guess −vod/adm,
+ * closed by Illinois regula falsi — not by the linear guess alone.
  *
  * Run i draws from a stream of (seed, i) only (numeric/random.ts), so the samples are the same
  * however the runs are split between workers: `mismatchSamples` solves any range of runs and
@@ -15,8 +15,10 @@
 import type { MismatchRequest, PortsRequest, Requests } from '../circuit/analyses';
 import { diagnostic, type Diagnostic } from '../circuit/diagnostic';
 import type { ComplexFigure, MismatchResult, SolveResult } from '../circuit/result';
-import type { Circuit, Part } from '../circuit/types';
-import { isOpFailure, solveOperatingPoint } from '../analysis/operating-point';
+import type { Circuit, Part, VoltageSource } from '../circuit/types';
+import { borrowWorkspace, releaseWorkspace } from '../analysis/newton';
+import { nodeRow } from '../analysis/mna';
+import { isOpFailure, solveOperatingPoint, solveUnknowns } from '../analysis/operating-point';
 import { streamFor, type RandomStream } from '../numeric/random';
 import { sampleStats } from '../numeric/stats';
 import { solveCircuit } from './solve-circuit';
@@ -150,16 +152,34 @@ export function inputOffset(circuit: Circuit, ports: PortsRequest, target: numbe
   const inP = circuit.parts.find((p) => p.name === ports.inP);
   const inN = circuit.parts.find((p) => p.name === ports.inN);
   if (inP?.kind !== 'vsrc' || inN?.kind !== 'vsrc') return undefined;
+  // Private copies of the two sources, moved per trial on one workspace (as dc-sweep.ts does):
+  // the circuit's shape is laid out and analysed once for the whole search.
+  const movedP: VoltageSource = { ...inP };
+  const movedN: VoltageSource = { ...inN };
+  const moved: Circuit = { ...circuit, parts: circuit.parts.map((p) => (p === inP ? movedP : p === inN ? movedN : p)) };
+  const ws = borrowWorkspace(moved);
+  const outP = nodeRow(ws.layout, ports.outP);
+  const outN = ports.outN ? nodeRow(ws.layout, ports.outN) : -1;
   let warm: Float64Array | undefined;
   const error = (vid: number): number | undefined => {
-    const parts = circuit.parts.map((p) => (p === inP ? { ...inP, dc: inP.dc + vid / 2 } : p === inN ? { ...inN, dc: inN.dc - vid / 2 } : p));
-    const op = solveOperatingPoint({ ...circuit, parts }, warm ? { x: warm } : undefined);
-    if (isOpFailure(op)) return undefined;
-    warm = op.x;
-    const nodes = op.report.nodes;
-    const out = (nodes[ports.outP] ?? 0) - (ports.outN ? nodes[ports.outN] ?? 0 : 0);
+    movedP.dc = inP.dc + vid / 2;
+    movedN.dc = inN.dc - vid / 2;
+    // Only the output nodes are read: the unknowns, without the operating-point report.
+    const x = solveUnknowns(ws, warm ? { x: warm } : undefined);
+    if (!(x instanceof Float64Array)) return undefined;
+    warm = x;
+    const out = (outP >= 0 ? x[outP] : 0) - (outN >= 0 ? x[outN] : 0);
     return out - target;
   };
+  try {
+    return nullingInput(error, admDc, target);
+  } finally {
+    releaseWorkspace(ws);
+  }
+}
+
+/** The root of `error` within ±VOS_SEARCH_LIMIT: bracketed from the linear guess, closed by {@link illinois}. */
+function nullingInput(error: (vid: number) => number | undefined, admDc: number, target: number): number | undefined {
   const f0 = error(0);
   if (f0 === undefined) return undefined;
   if (f0 === 0) return 0;

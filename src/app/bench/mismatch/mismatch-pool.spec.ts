@@ -2,7 +2,7 @@ import { TestBed } from '@angular/core/testing';
 import { solveNetlist } from '../../../../solver';
 import { solveReply } from '../solve-reply';
 import type { MismatchAsk } from '../solver-protocol';
-import { CHUNK_RUNS, MISMATCH_WORKER_COUNT, MISMATCH_WORKER_FACTORY, MismatchPool, poolSize } from './mismatch-pool';
+import { CHUNK_RUNS, IN_FLIGHT, MISMATCH_WORKER_COUNT, MISMATCH_WORKER_FACTORY, MismatchPool, poolSize } from './mismatch-pool';
 import { InProcessWorker, mismatchedPair } from './testing';
 
 function pool(workers: number): MismatchPool {
@@ -54,6 +54,17 @@ describe('MismatchPool', () => {
       const chunks = InProcessWorker.made.flatMap((w) => w.received).map((c) => [c.from, c.to]).sort((a, b) => a[0] - b[0]);
       expect(chunks).toEqual(Array.from({ length: Math.ceil(120 / CHUNK_RUNS) }, (_, k) => [k * CHUNK_RUNS, Math.min(120, (k + 1) * CHUNK_RUNS)]));
     }
+  });
+
+  it('keeps IN_FLIGHT chunks with each worker, so none waits for the page between chunks', async () => {
+    const p = pool(2);
+    const text = mismatchedPair('runs 200 seed 1 beta 5% is 2% res 0.5%');
+    p.start(text, ask(text));
+    // Before any reply: each of the two workers holds two chunks.
+    expect(InProcessWorker.made.map((w) => w.received.length)).toEqual([IN_FLIGHT, IN_FLIGHT]);
+    await settle(p);
+    expect(p.job()?.status).toBe('done');
+    expect(InProcessWorker.made.reduce((n, w) => n + w.received.length, 0)).toBe(200 / CHUNK_RUNS);
   });
 
   it('reports progress, and a cancel terminates the workers and says so', async () => {

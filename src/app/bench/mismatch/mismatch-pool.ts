@@ -2,7 +2,8 @@
  * The Mismatch tab's pool of workers. `analyze mismatch` solves each run from scratch (and
  * searches for its offset), so many runs take seconds: the live solve leaves it out and this pool
  * spreads the runs over max(1, hardwareConcurrency − 1) module workers — one core stays with the
- * page and the live solver — in chunks of CHUNK_RUNS handed out as workers free up. Run i draws
+ * page and the live solver — in chunks of CHUNK_RUNS handed out as workers free up, IN_FLIGHT per
+ * worker so that a worker never waits for the page to hand it the next one. Run i draws
  * from (seed, i) alone, so the merged result (`summarizeMismatch`) is the CLI's to the last digit
  * however the chunks were shared out.
  *
@@ -41,6 +42,11 @@ export function poolSize(cores: number | undefined): number {
 
 /** Runs per chunk: small enough for a smooth progress bar, large enough that messaging is noise. */
 export const CHUNK_RUNS = 25;
+/**
+ * Chunks a worker holds at once: the one it solves and the next, queued in its inbox, so it goes
+ * straight on while the page (busy painting, or on another core's share) takes in the reply.
+ */
+export const IN_FLIGHT = 2;
 /** Idle workers are terminated after this long without a job. */
 export const IDLE_MS = 30_000;
 
@@ -67,8 +73,8 @@ export interface MismatchJob {
 
 interface Handle {
   worker: MismatchWorkerLike;
-  /** The chunk it is solving, if any. */
-  chunk?: ChunkRequest;
+  /** Chunks handed to it and not answered yet (at most IN_FLIGHT). */
+  pending: number;
   answered: boolean;
 }
 
@@ -115,6 +121,7 @@ export class MismatchPool {
     for (const h of this.handles) h.answered = false;
     this.job.set({ text, ask, status: 'running', done: 0, total: ask.runs, workers: wanted, answered: 0 });
     if (this.queue.length === 0) return this.finish();
+    for (const h of this.handles) h.pending = 0;
     for (const h of this.handles) this.handOut(h);
   }
 
@@ -128,22 +135,24 @@ export class MismatchPool {
     this.job.set({ ...job, status: 'cancelled' });
   }
 
+  /** Tops the worker up to IN_FLIGHT chunks, while any are left. */
   private handOut(handle: Handle): void {
-    const chunk = this.queue.shift();
-    handle.chunk = chunk;
-    if (chunk) handle.worker.postMessage(chunk);
+    while (handle.pending < IN_FLIGHT && this.queue.length > 0) {
+      handle.worker.postMessage(this.queue.shift()!);
+      handle.pending++;
+    }
   }
 
   private onReply(handle: Handle, reply: ChunkReply): void {
     const job = this.job();
     if (reply.job !== this.jobId || job?.status !== 'running') return;
     if (reply.type === 'refused') return this.fail(reply.message);
-    handle.chunk = undefined;
+    handle.pending--;
     handle.answered = true;
     this.samples.push(...reply.samples);
     this.job.set({ ...job, done: this.samples.length, answered: this.handles.filter((h) => h.answered).length });
     if (this.queue.length > 0) this.handOut(handle);
-    else if (this.handles.every((h) => !h.chunk)) this.finish();
+    else if (this.handles.every((h) => h.pending === 0)) this.finish();
   }
 
   private finish(): void {
@@ -163,7 +172,7 @@ export class MismatchPool {
   }
 
   private spawn(): Handle {
-    const handle: Handle = { worker: this.makeWorker(), answered: false };
+    const handle: Handle = { worker: this.makeWorker(), pending: 0, answered: false };
     handle.worker.onmessage = (e) => this.onReply(handle, e.data);
     handle.worker.onerror = (e) => {
       e.preventDefault?.();
