@@ -17,9 +17,9 @@ import { parseNetlist } from '../solver';
 import type { MismatchRequest } from '../solver/circuit/analyses';
 import { mismatchSamples, summarizeMismatch, type MismatchSample } from '../solver/run/mismatch';
 
-const RUNS = 1600;
+const RUNS = 6400;
 /** Rounds of (1 worker, 2 workers) timed back to back; the median ratio is the figure. */
-const ROUNDS = 25;
+const ROUNDS = 9;
 /** Runs per chunk and chunks held per worker, as the bench's pool hands them out (src/app/bench/mismatch/mismatch-pool.ts). */
 const CHUNK_RUNS = 25;
 const IN_FLIGHT = 2;

@@ -8,7 +8,8 @@
  * degraded). The transposed solve for noise and sensitivity uses the same factors.
  */
 import { GROUND } from '../circuit/types';
-import { createComplexSolver, type SolverKind } from '../numeric/linear-solver';
+import { createComplexSolver, type ComplexLinearSolver, type SolverKind } from '../numeric/linear-solver';
+import type { SparsePattern } from '../numeric/sparse-pattern';
 import type { AcSolution, AcSolver, AdjointSolution, Excitation, LinearSystem, Phasor } from './engine-api';
 import { sparseOf } from './small-signal';
 
@@ -17,13 +18,21 @@ export { logSweep, unwrapPhaseDeg } from './frequency';
 const ZERO: Phasor = Object.freeze({ re: 0, im: 0 }) as Phasor;
 
 /**
+ * Complex LUs handed back by released solvers, by pattern (the circuit shape's, see
+ * circuit-shape.ts): building one (its structure and arrays) was a tenth of a mismatch run.
+ */
+const idleLus = new WeakMap<SparsePattern, ComplexLinearSolver[]>();
+const IDLE_LUS_PER_PATTERN = 4;
+
+/**
  * Creates a solver over `system`; the system's matrices are read, never modified. `kind` forces
  * the dense or the sparse LU (tests and the bench); by default it is chosen by size.
  */
 export function createAcSolver(system: LinearSystem, kind: SolverKind = 'auto'): AcSolver {
   const n = system.size;
   const { pattern, g, c } = sparseOf(system);
-  const lu = createComplexSolver(pattern, kind);
+  const lu = (kind === 'auto' ? idleLus.get(pattern)?.pop() : undefined) ?? createComplexSolver(pattern, kind);
+  let released = false;
   const re = new Float64Array(pattern.nnz);
   const im = new Float64Array(pattern.nnz);
 
@@ -31,6 +40,7 @@ export function createAcSolver(system: LinearSystem, kind: SolverKind = 'auto'):
   let factoredAt = NaN;
   let singular = false;
   const factor = (freqHz: number) => {
+    if (released) throw new Error('an AC solver was used after it was released');
     if (freqHz === factoredAt) return;
     const omega = Number.isFinite(freqHz) ? 2 * Math.PI * freqHz : 0;
     re.set(g);
@@ -40,6 +50,13 @@ export function createAcSolver(system: LinearSystem, kind: SolverKind = 'auto'):
   };
 
   return {
+    release(): void {
+      if (released || kind !== 'auto') return;
+      released = true;
+      let pool = idleLus.get(pattern);
+      if (!pool) idleLus.set(pattern, (pool = []));
+      if (pool.length < IDLE_LUS_PER_PATTERN) pool.push(lu);
+    },
     solveTransposed(freqHz: number, rhsRe: Float64Array, rhsIm: Float64Array): AdjointSolution {
       factor(freqHz);
       const yr = Float64Array.from(rhsRe);

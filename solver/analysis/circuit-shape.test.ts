@@ -5,9 +5,11 @@
  */
 import { describe, expect, it } from 'vitest';
 import type { Circuit, Part } from '../circuit/types';
+import { createAcSolver } from './ac-solve';
 import { circuitShape } from './circuit-shape';
 import { borrowWorkspace, NewtonWorkspace, releaseWorkspace } from './newton';
 import { isOpFailure, solveWithWorkspace } from './operating-point';
+import { linearize } from './small-signal';
 import { bjtModel, circuitOf } from './test-circuits';
 import type { OperatingPoint } from './engine-api';
 
@@ -94,3 +96,21 @@ describe('lent workspaces', () => {
     releaseWorkspace(two);
   });
 });
+
+describe('released AC solvers', () => {
+  it('lend their LU to the next solver of the shape, which gives the same solution, and refuse to be used again', () => {
+    const a = pair();
+    const b = revalued(a, 1.2);
+    const at = (c: Circuit) => linearize(c, solved(new NewtonWorkspace(c)));
+    const excitation = { injections: [['outa', { re: 1e-6, im: 0 }]] as [string, { re: number; im: number }][] };
+    const first = createAcSolver(at(a));
+    first.solve(1e6, [excitation]);
+    first.release();
+    expect(() => first.solve(1e6, [excitation])).toThrow(/after it was released/);
+    const lent = createAcSolver(at(b)).solve(1e6, [excitation])[0].v('outa');
+    const fresh = createAcSolver(at(b), 'sparse').solve(1e6, [excitation])[0].v('outa');
+    expect(Math.abs(lent.re - fresh.re)).toBeLessThanOrEqual(1e-12 * Math.abs(fresh.re));
+    expect(Math.abs(lent.im - fresh.im)).toBeLessThanOrEqual(1e-12 * Math.abs(fresh.re) + 1e-18);
+  });
+});
+

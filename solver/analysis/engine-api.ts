@@ -114,6 +114,12 @@ export interface AcSolver {
    * row j to unknown k: every noise contributor of a node from one solve.
    */
   solveTransposed(freqHz: number, rhsRe: Float64Array, rhsIm: Float64Array): AdjointSolution;
+  /**
+   * Hands the solver's LU back for the next solver of the same pattern (a mismatch analysis or a
+   * sweep makes one per run). Solutions already returned stay valid; the solver itself throws if
+   * used again. Optional: a solver never released is simply collected.
+   */
+  release(): void;
 }
 
 /** Solution of one transposed solve: split complex vectors over the unknowns. */

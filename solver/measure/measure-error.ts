@@ -4,11 +4,21 @@
  * measure layer.
  */
 export class MeasureError extends Error {
-  constructor(message: string, readonly hint?: string) {
+  readonly hint?: string;
+
+  constructor(message: string, hint?: string) {
+    // No stack: these are the user's mistakes, caught a few frames up and never shown with one,
+    // and a measure that fails in every run of a mismatch analysis made the stack capture (and
+    // an own `name`) a tenth of the run.
+    const engine = Error as { stackTraceLimit?: number };
+    const limit = engine.stackTraceLimit;
+    if (limit !== undefined) engine.stackTraceLimit = 0;
     super(message);
-    this.name = 'MeasureError';
+    if (limit !== undefined) engine.stackTraceLimit = limit;
+    this.hint = hint;
   }
 }
+Object.defineProperty(MeasureError.prototype, 'name', { value: 'MeasureError', configurable: true, writable: true });
 
 /**
  * A measure that cannot be evaluated because something it needs (an `analyze ac` or `ports`
@@ -18,9 +28,9 @@ export class MeasureError extends Error {
 export class FollowOnError extends MeasureError {
   constructor(what: string) {
     super(`${what} failed earlier.`);
-    this.name = 'FollowOnError';
   }
 }
+Object.defineProperty(FollowOnError.prototype, 'name', { value: 'FollowOnError', configurable: true, writable: true });
 
 /** The closest of `candidates` to `name` by edit distance, when close enough to be a likely typo. */
 export function closestName(name: string, candidates: Iterable<string>): string | undefined {

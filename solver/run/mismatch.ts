@@ -106,7 +106,7 @@ function oneRun(circuit: Circuit, requests: Requests, run: number, target: numbe
   for (const [name, v] of Object.entries(figures)) {
     if (name === 'cmrr_db' && requests.ports) {
       values[name] = v;
-      const vos = inputOffset(circuit, requests.ports, target ?? 0, figures.adm);
+      const vos = inputOffset(circuit, requests.ports, target ?? 0, figures.adm, solved.unknowns);
       if (vos !== undefined) values.vos = vos;
     } else values[name] = v;
   }
@@ -147,8 +147,10 @@ export const VOS_SEARCH_LIMIT = 1;
  * BIT 11, 1971), which keeps the root bracketed where a plain secant would leap off a saturated,
  * flat stretch of the transfer curve to a far, meaningless crossing. Undefined when the inputs are
  * not voltage sources, no sign change lies within the limit, or an operating point fails.
+ * `solvedAtZero`, the circuit's own operating-point unknowns when the caller has them, is the
+ * search's first point (one solve fewer per run).
  */
-export function inputOffset(circuit: Circuit, ports: PortsRequest, target: number, admDc: number): number | undefined {
+export function inputOffset(circuit: Circuit, ports: PortsRequest, target: number, admDc: number, solvedAtZero?: Float64Array): number | undefined {
   const inP = circuit.parts.find((p) => p.name === ports.inP);
   const inN = circuit.parts.find((p) => p.name === ports.inN);
   if (inP?.kind !== 'vsrc' || inN?.kind !== 'vsrc') return undefined;
@@ -171,17 +173,19 @@ export function inputOffset(circuit: Circuit, ports: PortsRequest, target: numbe
     const out = (outP >= 0 ? x[outP] : 0) - (outN >= 0 ? x[outN] : 0);
     return out - target;
   };
+  // The circuit's own operating point (no input moved) is the search's first point, when given.
+  const atZero = solvedAtZero?.length === ws.n ? solvedAtZero : undefined;
+  if (atZero) warm = atZero;
+  const f0 = atZero ? (outP >= 0 ? atZero[outP] : 0) - (outN >= 0 ? atZero[outN] : 0) - target : error(0);
   try {
-    return nullingInput(error, admDc, target);
+    return f0 === undefined ? undefined : nullingInput(error, f0, admDc, target);
   } finally {
     releaseWorkspace(ws);
   }
 }
 
-/** The root of `error` within ±VOS_SEARCH_LIMIT: bracketed from the linear guess, closed by {@link illinois}. */
-function nullingInput(error: (vid: number) => number | undefined, admDc: number, target: number): number | undefined {
-  const f0 = error(0);
-  if (f0 === undefined) return undefined;
+/** The root of `error` (f0 at 0) within ±VOS_SEARCH_LIMIT: bracketed from the linear guess, closed by {@link illinois}. */
+function nullingInput(error: (vid: number) => number | undefined, f0: number, admDc: number, target: number): number | undefined {
   if (f0 === 0) return 0;
   // Bracket: from the linear guess outwards, doubling, in the guess's direction first.
   const guess = admDc !== 0 && Number.isFinite(admDc) ? -f0 / admDc : 1e-3;

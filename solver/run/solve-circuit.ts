@@ -20,6 +20,8 @@ import type { AnalysisRunner, BiasPoint, RequestOf } from './analysis-run';
 export interface CircuitRun {
   result: Pick<SolveResult, 'op' | 'ports' | RunningKind | 'measures' | 'checks'>;
   diagnostics: Diagnostic[];
+  /** The operating point's unknowns (the shape's layout), for a caller that solves nearby from it. */
+  unknowns?: Float64Array;
 }
 
 /**
@@ -62,7 +64,9 @@ export function solveCircuit(circuit: Circuit, requests: Requests): CircuitRun {
   result.measures = measured.measures;
   result.checks = measured.checks;
   diagnostics.push(...measured.diagnostics);
-  return { result, diagnostics };
+  // The result holds numbers only, never the solver: its LU can serve the next run of the shape.
+  solver.release();
+  return { result, diagnostics, unknowns: op.x };
 }
 
 /** Runs one analysis from the table and files its member, diagnostics and measure data; false when it gave no member. */
