@@ -11,7 +11,7 @@ import type { CheckRequest, MeasureRequest } from '../circuit/analyses';
 import { diagnostic, type Diagnostic, type SourceLoc } from '../circuit/diagnostic';
 import type { CheckResult } from '../circuit/result';
 import { BUILTIN_FIGURES, CURVE_FUNCTIONS, PORTS_CURVE_NAMES } from '../language/vocabulary';
-import { fromPhasor, measureFunctions, type MeasureContext } from './functions';
+import { fromPhasor, functionTable, type MeasureContext } from './functions';
 import { isEffectivelyReal } from '../numeric/complex';
 import { FollowOnError, MeasureError, didYouMean } from './measure-error';
 import { measureMath } from './math';
@@ -121,29 +121,76 @@ function explain(
  * Never throws.
  */
 export function evaluateMeasures(measureRequests: MeasureRequest[], checkRequests: CheckRequest[], ctx: MeasureContext): MeasureOutcome {
-  const functions = measureFunctions(ctx);
-  const functionNames = Object.keys(functions);
-  const scope = new Map<string, unknown>();
+  // The shared function table reads this evaluation's context (restored after: never nested today).
+  const previous = current;
+  current = ctx;
+  try {
+    return evaluateInContext(measureRequests, checkRequests, ctx);
+  } finally {
+    current = previous;
+  }
+}
+
+/** The context of the evaluation in progress, which the shared function table reads. */
+let current: MeasureContext | undefined;
+const sharedFunctions = functionTable(() => {
+  if (!current) throw new Error('a measure function was called outside an evaluation');
+  return current;
+});
+const functionNames = Object.keys(sharedFunctions);
+const functionNameSet: ReadonlySet<string> = new Set(functionNames);
+
+/**
+ * The names an expression sees: the functions (which win over a param of the same name), then
+ * the params, the ports figures and the measures so far. A Map as mathjs reads one (get, set,
+ * has, keys), over the one shared function table instead of a copy of it per evaluation.
+ */
+class MeasureScope {
+  private readonly own = new Map<string, unknown>();
+
+  get(name: string): unknown {
+    return functionNameSet.has(name) ? sharedFunctions[name] : this.own.get(name);
+  }
+
+  has(name: string): boolean {
+    return functionNameSet.has(name) || this.own.has(name);
+  }
+
+  set(name: string, value: unknown): this {
+    this.own.set(name, value);
+    return this;
+  }
+
+  delete(name: string): boolean {
+    return this.own.delete(name);
+  }
+
+  keys(): IterableIterator<string> {
+    return new Set([...functionNames, ...this.own.keys()]).keys();
+  }
+
+  /** The names that are values (not functions). */
+  valueNames(): string[] {
+    return [...this.own.keys()].filter((k) => !functionNameSet.has(k) && typeof this.own.get(k) !== 'function');
+  }
+}
+
+function evaluateInContext(measureRequests: MeasureRequest[], checkRequests: CheckRequest[], ctx: MeasureContext): MeasureOutcome {
+  const scope = new MeasureScope();
   for (const [k, v] of Object.entries(ctx.params)) scope.set(k, v);
-  const setPortsNames = () => {
-    if (!ctx.ports) return;
+  if (ctx.ports) {
     scope.set('adm', fromPhasor(ctx.ports.adm));
     scope.set('acm', fromPhasor(ctx.ports.acm));
     scope.set('cmrr', ctx.ports.cmrr);
     scope.set('cmrr_db', ctx.ports.cmrrDb);
-  };
-  const setFunctions = () => {
-    for (const [k, f] of Object.entries(functions)) scope.set(k, f);
-  };
-  setPortsNames();
-  setFunctions();
+  }
 
   const measures: Record<string, number> = {};
   /** Measures that failed (reported once): what uses them stays silent. */
   const failed = new Set<string>();
   const failedRequests = ctx.failed ?? new Set<string>();
   const diagnostics: Diagnostic[] = [];
-  const scopeNames = () => [...scope.keys()].filter((k) => typeof scope.get(k) !== 'function');
+  const scopeNames = () => scope.valueNames();
 
   const evaluate = (what: string, expr: string): number => {
     const { compiled, symbols } = compiledExpression(expr);

@@ -71,23 +71,34 @@ function realNumber(fn: string, what: string, x: unknown): number {
   return z.re;
 }
 
-/** Builds the function table for one context. */
+/** The function table bound to one context. */
 export function measureFunctions(ctx: MeasureContext): Record<string, (...args: unknown[]) => unknown> {
+  return functionTable(() => ctx);
+}
+
+/**
+ * The function table over the context `read` gives at each call: one table can serve every
+ * evaluation (see evaluate.ts), where a table per evaluation was a tenth of a mismatch run's
+ * garbage.
+ */
+export function functionTable(read: () => MeasureContext): Record<string, (...args: unknown[]) => unknown> {
   const needAc = (fn: string) => {
-    if (!ctx.ac && ctx.failed?.has('ac')) throw new FollowOnError('analyze ac');
-    if (!ctx.ac) throw new MeasureError(`${fn}() needs an ac sweep.`, 'add `analyze ac from 10 Hz to 1 GHz per decade 20`');
-    return ctx.ac;
+    const { ac, failed } = read();
+    if (!ac && failed?.has('ac')) throw new FollowOnError('analyze ac');
+    if (!ac) throw new MeasureError(`${fn}() needs an ac sweep.`, 'add `analyze ac from 10 Hz to 1 GHz per decade 20`');
+    return ac;
   };
   const needLinear = (fn: string) => {
-    if (!ctx.linear) throw new MeasureError(`${fn}() needs the small-signal circuit, which is not available.`);
-    return ctx.linear;
+    const { linear } = read();
+    if (!linear) throw new MeasureError(`${fn}() needs the small-signal circuit, which is not available.`);
+    return linear;
   };
-  const defaultFrequency = () => ctx.ports?.atHz ?? 0;
+  const defaultFrequency = () => read().ports?.atHz ?? 0;
 
   const acNode = (fn: string, a: unknown, b?: unknown): FreqCurve => {
     const ac = needAc(fn);
     const names = b === undefined ? [a] : [a, b];
-    const nodeNames = ctx.op.nodes;
+    const nodeNames = read().op.nodes;
     for (const n of names) {
       if (typeof n !== 'string') throw new MeasureError(`${fn}() takes node names.`, 'write ac(outa) or ac(outa, outb)');
       if (n !== GROUND && nodeNames[n] === undefined) throw new MeasureError(`${fn}(${n}): there is no node \`${n}\`.`, didYouMean(n, Object.keys(nodeNames)));
@@ -101,8 +112,9 @@ export function measureFunctions(ctx: MeasureContext): Record<string, (...args: 
     if (isFreqCurve(x)) return x;
     if (typeof x === 'string' && PORTS_CURVE_NAMES.includes(x)) {
       const ac = needAc(fn);
-      if ((!ctx.ports || !ac.portsCurves) && ctx.failed?.has('ports')) throw new FollowOnError('ports');
-      if (!ctx.ports || !ac.portsCurves) throw new MeasureError(`${fn}(${x}) needs a \`ports\` statement.`, 'add `ports in=(va, vb) out=(outa, outb)`');
+      const { ports, failed } = read();
+      if ((!ports || !ac.portsCurves) && failed?.has('ports')) throw new FollowOnError('ports');
+      if (!ports || !ac.portsCurves) throw new MeasureError(`${fn}(${x}) needs a \`ports\` statement.`, 'add `ports in=(va, vb) out=(outa, outb)`');
       return { name: x, freqHz: ac.freqHz, curve: ac.portsCurves[x as 'adm' | 'acm' | 'cmrr'] };
     }
     throw new MeasureError(`${fn}() takes a curve: adm, acm, cmrr or ac(node).`, typeof x === 'string' ? `write ${fn}(ac(${x}))` : undefined);
@@ -110,13 +122,13 @@ export function measureFunctions(ctx: MeasureContext): Record<string, (...args: 
 
   const table: Record<string, (...args: unknown[]) => unknown> = {
     v: (...args) => {
-      if (args.length === 1) return nodeVoltage(ctx.op, args[0]);
-      if (args.length === 2) return nodeVoltage(ctx.op, args[0]) - nodeVoltage(ctx.op, args[1]);
+      if (args.length === 1) return nodeVoltage(read().op, args[0]);
+      if (args.length === 2) return nodeVoltage(read().op, args[0]) - nodeVoltage(read().op, args[1]);
       throw new MeasureError('v() takes one node, or two for a difference.', 'write v(outa) or v(outa, outb)');
     },
     i: (...args) => {
       if (args.length !== 1) throw new MeasureError('i() takes one part name.', 'write i(rc1)');
-      return partCurrent(ctx.op, args[0]);
+      return partCurrent(read().op, args[0]);
     },
     db: (...args) => {
       if (args.length !== 1) throw new MeasureError('db() takes one value.');
@@ -163,12 +175,12 @@ export function measureFunctions(ctx: MeasureContext): Record<string, (...args: 
       return fromPhasor(outputImpedance(system, solver, args[0], f));
     },
   };
-  Object.assign(table, noiseFunctions(ctx.noise, ctx.failed));
-  Object.assign(table, poleFunctions(ctx.poles, ctx.failed));
+  Object.assign(table, noiseFunctions(read));
+  Object.assign(table, poleFunctions(read));
   for (const q of DEVICE_QUANTITIES) {
     table[q] = (...args) => {
       if (args.length !== 1) throw new MeasureError(`${q}() takes one device name.`, `write ${q}(q1)`);
-      return deviceQuantity(ctx.op, q, args[0]);
+      return deviceQuantity(read().op, q, args[0]);
     };
   }
   return table;

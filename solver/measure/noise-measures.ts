@@ -37,9 +37,10 @@ function realArg(fn: string, what: string, x: unknown): number {
   return z.re;
 }
 
-/** The noise functions bound to one run's noise data (absent: they say what is missing). */
-export function noiseFunctions(noise: NoiseMeasureData | undefined, failed: ReadonlySet<string> | undefined): Record<string, Fn> {
+/** The noise functions over the run's noise data that `read` gives at each call (absent: they say what is missing). */
+export function noiseFunctions(read: () => { noise?: NoiseMeasureData; failed?: ReadonlySet<string> }): Record<string, Fn> {
   const need = (fn: string): NoiseMeasureData => {
+    const { noise, failed } = read();
     if (!noise && failed?.has('noise')) throw new FollowOnError('analyze noise');
     if (!noise) throw new MeasureError(`${fn}() needs a noise analysis.`, 'add e.g. `analyze noise out outa in va from 10 Hz to 10 MHz per decade 10`');
     return noise;

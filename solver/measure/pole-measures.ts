@@ -39,8 +39,9 @@ function nth(fn: 'pole' | 'zero', list: readonly PoleZero[], args: unknown[]): n
 }
 
 /** pole() and zero() bound to one run's poles (absent: they say what is missing). */
-export function poleFunctions(poles: PolesMeasureData | undefined, failed: ReadonlySet<string> | undefined): Record<string, Fn> {
+export function poleFunctions(read: () => { poles?: PolesMeasureData; failed?: ReadonlySet<string> }): Record<string, Fn> {
   const need = (fn: string): PolesMeasureData => {
+    const { poles, failed } = read();
     if (!poles && failed?.has('poles')) throw new FollowOnError('analyze poles');
     if (!poles) throw new MeasureError(`${fn}() needs the poles analysis.`, 'add `analyze poles`');
     return poles;
