@@ -52,10 +52,10 @@ export interface AnalysisSpec {
 export const ANALYSIS_SPECS: readonly AnalysisSpec[] = [
   { kind: 'ac', syntax: 'analyze ac from 10 Hz to 1 GHz per decade 20', detail: 'from 10 Hz to 1 GHz per decade 20', doc: 'small-signal sweep over frequency', once: true },
   { kind: 'transfer', syntax: 'analyze transfer va from -100m to 100m step 1m', detail: 'SOURCE from -100m to 100m step 1m', doc: 'DC transfer curve: one source\'s DC value swept', once: true },
-  { kind: 'vary', syntax: 'analyze vary rt over 1k 10k 100k', detail: 'PARAM over … | from … to … per decade N', doc: 're-runs the other analyses per parameter value' },
-  { kind: 'temp', syntax: 'analyze temp over -40 27 125', detail: 'over -40 27 125', doc: 're-runs the other analyses per temperature (°C)' },
+  { kind: 'vary', syntax: 'analyze vary rt over 1k 10k 100k', detail: 'PARAM over … | from … to … per decade N', doc: 're-runs the other analyses per parameter value', once: true },
+  { kind: 'temp', syntax: 'analyze temp over -40 27 125', detail: 'over -40 27 125', doc: 're-runs the other analyses per temperature (°C)', once: true },
   { kind: 'noise', syntax: 'analyze noise out outa in va from 10 Hz to 10 MHz per decade 10', detail: 'out NODE [REF] in SOURCE from … to … per decade N', doc: 'output and input-referred noise density, and each part\'s share of it', once: true },
-  { kind: 'mismatch', syntax: 'analyze mismatch runs 500 seed 7 beta 5% is 2% res 0.5%', detail: 'runs 500 seed 7 beta 5% is 2% res 0.5%', doc: 'Monte Carlo spreads of the ports figures and measures' },
+  { kind: 'mismatch', syntax: 'analyze mismatch runs 500 seed 7 beta 5% is 2% res 0.5%', detail: 'runs 500 seed 7 beta 5% is 2% res 0.5%', doc: 'Monte Carlo spreads of the ports figures and measures', once: true },
   { kind: 'sensitivity', syntax: 'analyze sensitivity', detail: 'what moves each figure most', doc: 'normalised sensitivities of the ports figures and measures to every part value and device parameter', once: true },
   { kind: 'poles', syntax: 'analyze poles', detail: '[out NODE]', doc: 'natural frequencies of the linearised circuit (sources zeroed) and the zeros of its transfer', once: true },
 ];

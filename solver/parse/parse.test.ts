@@ -118,7 +118,6 @@ describe('statements', () => {
       'r2: res(out, gnd) 1k',
       'analyze transfer va from -100m to 100m step 1m',
       'analyze vary rt over 1k 10k 100k',
-      'analyze vary rt from 1k to 1M per decade 5',
       'analyze temp over -40 27 125',
       'analyze noise out out in va from 10 Hz to 10 MHz per decade 10',
       'analyze mismatch runs 500 seed 7 beta 5% is 2% res 0.5%',
@@ -126,10 +125,16 @@ describe('statements', () => {
     ].join('\n');
     const r = parseNetlist(text);
     expect(r.diagnostics).toEqual([]);
-    const [transfer, vary1, vary2, temp, noise, mismatch, poles] = r.requests.analyses;
+    const [transfer, vary1, temp, noise, mismatch, poles] = r.requests.analyses;
     expect(transfer).toMatchObject({ kind: 'transfer', source: 'va', from: -0.1, to: 0.1 });
     expect((transfer as { step: number }).step).toBeCloseTo(1e-3, 15);
     expect(vary1).toMatchObject({ kind: 'vary', param: 'rt', values: [1000, 10000, 100000] });
+    // The log-range form, in a netlist of its own: one vary per netlist, a second is ignored with a warning.
+    const logRange = parseNetlist(text.replace('analyze vary rt over 1k 10k 100k', 'analyze vary rt from 1k to 1M per decade 5'));
+    const vary2 = logRange.requests.analyses.find((a) => a.kind === 'vary');
+    const two = parseNetlist(`${text}\nanalyze vary rt from 1k to 1M per decade 5`);
+    expect(two.diagnostics.map((d) => [d.code, d.line])).toEqual([['duplicate-analysis', 11]]);
+    expect(two.requests.analyses.filter((a) => a.kind === 'vary')).toHaveLength(1);
     const values2 = (vary2 as { values: number[] }).values;
     expect(values2).toHaveLength(16); // 3 decades × 5 per decade, both ends
     expectNearlyEqual(values2[5], 1e4, 5e-13, 0);
