@@ -35,3 +35,4 @@ export { bandPower, powerAt } from './report/noise-band';
 // Mismatch runs by range and their summary: the bench spreads the runs over several workers.
 export { mismatchSamples, summarizeMismatch, perturbedCircuit, MAX_MISMATCH_WORK, type MismatchSample } from './run/mismatch';
 export type { SampleStats } from './numeric/stats';
+export type { Steps } from './run/steps';

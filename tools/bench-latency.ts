@@ -1,7 +1,7 @@
 /**
  * Keystroke-to-results-painted latency of the bench, in headless chromium.
  *
- *   npx tsx tools/bench-latency.ts [--edits 20] [--keep-build] [--dist DIR] [--large 20]
+ *   npx tsx tools/bench-latency.ts [--edits 20] [--keep-build] [--dist DIR] [--large 20] [--append LINE]
  *
  * Builds the app when stale, serves it statically on a loopback port (the bench needs no API),
  * opens each Strainlab example and makes single-keystroke value edits, each after a pause (the
@@ -12,7 +12,8 @@
  * records the main thread's long tasks (over 50 ms): the longest one shows whether the page stays
  * responsive while results render. Prints p50 and p95 per example and over all, and the longest
  * task. `--large N` adds a generated netlist of N resistor-tail pairs (tables of a few hundred
- * rows), to see that a large result renders without long tasks. `--dist` measures another build (say, one of an earlier commit) instead of this one, for a
+ * rows), to see that a large result renders without long tasks; `--append LINE` adds a line (say
+ * `analyze poles`) to each example first, to see what an analysis costs while typing. `--dist` measures another build (say, one of an earlier commit) instead of this one, for a
  * before/after on the same machine at the same time. A measurement, not a test: nothing fails.
  */
 import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
@@ -29,6 +30,8 @@ const option = (name: string): string | undefined => (args.includes(name) ? args
 const EDITS = Number(option('--edits')) > 0 ? Number(option('--edits')) : 20;
 const DIST = option('--dist') ?? APP_DIST;
 const LARGE = Number(option('--large')) || 0;
+/** A line added to the end of each example before typing (`--append 'analyze poles'`): what an analysis costs live. */
+const APPEND = option('--append');
 
 /** N resistor-tail pairs on shared supplies and inputs: a netlist with many rows in every table. */
 function manyPairs(n: number): string {
@@ -116,6 +119,13 @@ async function measureExample(page: Page, url: string, netlist: { id: string } |
     await latencyOfLastEdit(page);
     await page.waitForTimeout(PAUSE_MS);
     tasks.push(...(await longTasks(page)));
+  }
+  if (APPEND) {
+    await page.locator('.cm-content').click({ position: { x: 8, y: 8 } });
+    await page.keyboard.press('Control+End');
+    await page.keyboard.insertText(`\n${APPEND}\n`);
+    await latencyOfLastEdit(page);
+    await page.waitForTimeout(PAUSE_MS);
   }
   const id = 'id' in netlist ? netlist.id : 'generated netlist';
   const lines = await page.locator('.cm-line').allTextContents();

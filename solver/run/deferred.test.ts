@@ -12,6 +12,24 @@ check a0 >= 38
 `;
 
 describe('the deferred stage of a solve', () => {
+  it('runs the deferred stage in steps, one per sweep value and per sensitivity knob, to the very same result', () => {
+    const text = `${PAIR}analyze temp over -40 27 85\nanalyze vary rc over 5k 10k\nanalyze sensitivity\n`;
+    const staged = solveWithOutline(text, { defer: true });
+    const steps = staged.finishSteps!();
+    let yields = 0;
+    let next = steps.next();
+    for (; !next.done; next = steps.next()) yields++;
+    // 3 temperatures + 2 values + a step per knob (the resistors' values and the transistors' parameters).
+    expect(yields).toBeGreaterThan(3 + 2 + 5);
+    expect(JSON.stringify(next.value)).toBe(JSON.stringify(solveNetlist(text)));
+    // Steps dropped midway (newer text) leave nothing behind: a fresh run gives the same.
+    const dropped = solveWithOutline(text, { defer: true }).finishSteps!();
+    dropped.next();
+    dropped.next();
+    expect(dropped.return(undefined as never).done).toBe(true);
+    expect(JSON.stringify(solveWithOutline(text, { defer: true }).finish!())).toBe(JSON.stringify(next.value));
+  });
+
   it('leaves vary, temp and sensitivity to finish(), which then gives exactly the one-stage result', () => {
     const text = `${PAIR}analyze temp over -40 27 85\nanalyze vary rc over 5k 10k\nanalyze sensitivity\nanalyze vary bogus over 1 2\n`;
     const staged = solveWithOutline(text, { defer: true });

@@ -11,6 +11,7 @@
  * and rounding (≈ 1e-9/h = 1e-5 relative) errors stay far below what a ranking needs. A knob at
  * 0 or a figure at 0 has no normalised sensitivity and is left out.
  */
+import type { Steps } from './steps';
 import type { Requests } from '../circuit/analyses';
 import { diagnostic, type Diagnostic } from '../circuit/diagnostic';
 import type { SensitivityResult } from '../circuit/result';
@@ -91,8 +92,9 @@ export function knobsOf(circuit: Circuit): Knob[] {
   return knobs;
 }
 
-/** The analysis over a circuit that solved; its member, or an error when there are too many knobs. */
-export function runSensitivity(circuit: Circuit, requests: Requests): { member?: SensitivityResult; diagnostics: Diagnostic[] } {
+
+/** The analysis over a circuit that solved — its member, or an error when there are too many knobs — yielding after each knob's two re-solves (run/steps.ts). */
+export function* sensitivitySteps(circuit: Circuit, requests: Requests): Steps<{ member?: SensitivityResult; diagnostics: Diagnostic[] }> {
   const request = requests.analyses.find((a) => a.kind === 'sensitivity');
   if (!request) return { diagnostics: [] };
   const knobs = knobsOf(circuit);
@@ -112,6 +114,7 @@ export function runSensitivity(circuit: Circuit, requests: Requests): { member?:
   for (const knob of knobs) {
     const up = figures(knob.scaled(1 + SENSITIVITY_STEP));
     const down = figures(knob.scaled(1 - SENSITIVITY_STEP));
+    yield;
     if (!up || !down) {
       unsolved++;
       continue;

@@ -15,8 +15,9 @@ import type { ParseOptions, ParseResult } from '../parse/parse-netlist';
 import { unavailableAnalyses } from './analyses';
 import { solveCircuit } from './solve-circuit';
 import { mismatchPrecheck, runMismatch } from './mismatch';
-import { runSensitivity } from './sensitivity';
-import { isSweep, runSweeps } from './sweeps';
+import { sensitivitySteps } from './sensitivity';
+import { drain, type Steps } from './steps';
+import { isSweep, sweepSteps } from './sweeps';
 
 /** Options of a solve: how `use path@version` lines find their library files, and what to leave out. */
 export interface SolveOptions {
@@ -45,6 +46,11 @@ export interface OutlinedSolve {
    * them and returns the whole result, exactly what a solve without `defer` gives. Never throws.
    */
   finish?: () => SolveResult;
+  /**
+   * `finish` as steps: yields between its units of work (a sweep value, a sensitivity knob), so
+   * a caller with an event loop can drop it when newer text is waiting. Never throws.
+   */
+  finishSteps?: () => Steps<SolveResult>;
 }
 
 /** Solves a netlist. Never throws. */
@@ -60,7 +66,7 @@ export function solveNetlist(text: string, options: SolveOptions = {}): SolveRes
 export function solveWithOutline(text: string, options: SolveOptions = {}): OutlinedSolve {
   let result: SolveResult;
   let parsed: ParseResult | undefined;
-  let rest: (() => SolveResult) | undefined;
+  let rest: (() => Steps<SolveResult>) | undefined;
   const skipped: AnalysisRequest[] = [];
   try {
     parsed = parseNetlist(typeof text === 'string' ? text : '', { resolveUse: options.resolveUse });
@@ -75,16 +81,19 @@ export function solveWithOutline(text: string, options: SolveOptions = {}): Outl
   const outline = parsed?.outline ?? emptyOutline();
   if (!rest) return { result: finalize(result), outline, skipped };
   const second = rest;
-  return { result: finalize(result), outline, skipped, finish: () => finalize(guarded(second)) };
+  const finishSteps = () => guardedSteps(second);
+  return { result: finalize(result), outline, skipped, finish: () => drain(finishSteps()), finishSteps };
 }
 
-/** Runs a stage that may hit an engine defect, turning the surprise into a diagnostic. */
-function guarded(stage: () => SolveResult): SolveResult {
+/** Runs a stage that may hit an engine defect, turning the surprise into a diagnostic, and finalizes its result. */
+function* guardedSteps(stage: () => Steps<SolveResult>): Steps<SolveResult> {
+  let result: SolveResult;
   try {
-    return stage();
+    result = yield* stage();
   } catch (err) {
-    return internalError(err);
+    result = internalError(err);
   }
+  return finalize(result);
 }
 
 /** The result of a solve that hit an engine defect: nothing but the error saying so. */
@@ -112,7 +121,7 @@ function emptyResult(title: string, tempC: number): SolveResult {
  * measures, checks) and mismatch, then the analyses that re-solve it many times (sweeps,
  * sensitivity) — at once, or, with `defer`, in `rest` for the caller to run next.
  */
-function solveParsed(parsed: ParseResult, skip: ReadonlyArray<'mismatch'>, defer: boolean): { result: SolveResult; rest?: () => SolveResult } {
+function solveParsed(parsed: ParseResult, skip: ReadonlyArray<'mismatch'>, defer: boolean): { result: SolveResult; rest?: () => Steps<SolveResult> } {
   const diagnostics: Diagnostic[] = [...parsed.diagnostics];
   const circuit = parsed.circuit;
   let result = emptyResult(circuit?.title ?? '', circuit?.options.temp ?? 27);
@@ -139,11 +148,11 @@ function solveParsed(parsed: ParseResult, skip: ReadonlyArray<'mismatch'>, defer
     for (const request of parsed.requests.analyses) if (request.kind === 'mismatch') diagnostics.push(...mismatchPrecheck(circuit, request));
   }
   const base = result;
-  const manyRuns = (): SolveResult => {
+  const manyRuns = function* (): Steps<SolveResult> {
     const more = [...diagnostics];
-    const sweeps = runSweeps({ ...parsed, circuit });
+    const sweeps = yield* sweepSteps({ ...parsed, circuit });
     more.push(...sweeps.diagnostics);
-    const sensitivity = runSensitivity(circuit, parsed.requests);
+    const sensitivity = yield* sensitivitySteps(circuit, parsed.requests);
     more.push(...sensitivity.diagnostics);
     // One member order whichever way the stages ran.
     const whole: SolveResult = { ...base, ...sweeps.members };
@@ -152,7 +161,7 @@ function solveParsed(parsed: ParseResult, skip: ReadonlyArray<'mismatch'>, defer
     return order(whole, more);
   };
   const deferred = parsed.requests.analyses.some((a) => isSweep(a.kind) || a.kind === 'sensitivity');
-  if (!defer || !deferred) return { result: manyRuns() };
+  if (!defer || !deferred) return { result: drain(manyRuns()) };
   const first: SolveResult = { ...base };
   if (mismatch) first.mismatch = mismatch;
   return { result: order(first, diagnostics), rest: manyRuns };

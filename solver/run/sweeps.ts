@@ -12,6 +12,7 @@
  * A value at which the circuit does not solve keeps its place, with `errors`, and one warning on
  * the analyze line names those values; the other values are still reported.
  */
+import type { Steps } from './steps';
 import type { AnalysisRequest, Requests, TempRequest, VaryRequest } from '../circuit/analyses';
 import { diagnostic, type Diagnostic } from '../circuit/diagnostic';
 import type { SweepRun, TempResult, VaryResult } from '../circuit/result';
@@ -39,26 +40,32 @@ export function isSweep(kind: AnalysisRequest['kind']): kind is SweepKind {
   return (SWEEP_KINDS as readonly string[]).includes(kind);
 }
 
-/** Runs every sweep the netlist asks for over a parsed netlist whose circuit elaborated. */
-export function runSweeps(parsed: ParseResult & { circuit: Circuit }): { members: SweepMembers; diagnostics: Diagnostic[] } {
+
+/** Runs every sweep the netlist asks for over a parsed netlist whose circuit elaborated, yielding after each value's run (run/steps.ts). */
+export function* sweepSteps(parsed: ParseResult & { circuit: Circuit }): Steps<{ members: SweepMembers; diagnostics: Diagnostic[] }> {
   const members: SweepMembers = {};
   const diagnostics: Diagnostic[] = [];
   const perValue = perValueRequests(parsed.requests);
   const vary = parsed.requests.analyses.find((a): a is VaryRequest => a.kind === 'vary');
   if (vary && parsed.withParams && fits(vary, vary.values.length, perValue, diagnostics)) {
     const withParams = parsed.withParams;
-    const runs = vary.values.map((value) => {
+    const runs: SweepRun[] = [];
+    for (const value of vary.values) {
       const variant = withParams({ [vary.param]: value });
-      if (!variant.circuit) return failedRun(variant.diagnostics);
-      return runAt(variant.circuit, { ...perValue, params: variant.params });
-    });
+      runs.push(variant.circuit ? runAt(variant.circuit, { ...perValue, params: variant.params }) : failedRun(variant.diagnostics));
+      yield;
+    }
     members.vary = { param: vary.param, values: vary.values, runs };
     diagnostics.push(...failures(vary, runs, vary.values.map((v) => `${vary.param} = ${formatSi(v)}`)));
   }
   const temp = parsed.requests.analyses.find((a): a is TempRequest => a.kind === 'temp');
   if (temp && fits(temp, temp.valuesC.length, perValue, diagnostics)) {
     const circuit = parsed.circuit;
-    const runs = temp.valuesC.map((t) => runAt({ ...circuit, options: { ...circuit.options, temp: t } }, perValue));
+    const runs: SweepRun[] = [];
+    for (const t of temp.valuesC) {
+      runs.push(runAt({ ...circuit, options: { ...circuit.options, temp: t } }, perValue));
+      yield;
+    }
     members.temp = { values_c: temp.valuesC, runs };
     diagnostics.push(...failures(temp, runs, temp.valuesC.map((t) => `${t} °C`)));
   }

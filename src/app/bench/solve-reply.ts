@@ -3,7 +3,7 @@
  * defines (the outline's symbols with its `use` lines as resolved) and its measure and check lines.
  * The worker sends it; the specs' fake workers build theirs with it too, so they answer as it does.
  */
-import { solveWithOutline, type MismatchRequest, type OutlineUse, type SolveOptions, type SolveResult } from '../../../solver';
+import { solveWithOutline, type MismatchRequest, type OutlineUse, type SolveOptions, type SolveResult, type Steps } from '../../../solver';
 import type { LibraryContext, MismatchAsk, SolveReply, UsedBlock } from './solver-protocol';
 
 /** What is known of a `use` line beyond the line itself: by default, nothing (no library). */
@@ -30,11 +30,11 @@ export function solveReply(id: number, text: string, options: ReplyOptions = {})
 /**
  * The worker's two-stage reply: with `defer`, `reply` holds everything but the analyses that
  * re-solve the circuit many times (`vary`, `temp`, `sensitivity`) and says so (`pending`);
- * `finish` then solves those and gives the whole result, the very one `solveReply` gives.
+ * `finishSteps` then solves those, in steps, and gives the whole result, the very one `solveReply` gives.
  */
-export function stagedSolveReply(id: number, text: string, options: ReplyOptions, defer: boolean): { reply: SolveReply; finish?: () => SolveResult } {
+export function stagedSolveReply(id: number, text: string, options: ReplyOptions, defer: boolean): { reply: SolveReply; finishSteps?: () => Steps<SolveResult> } {
   const started = performance.now();
-  const { result, outline, skipped, finish } = solveWithOutline(text, { resolveUse: options.resolveUse, skip: ['mismatch'], defer });
+  const { result, outline, skipped, finishSteps } = solveWithOutline(text, { resolveUse: options.resolveUse, skip: ['mismatch'], defer });
   const mismatch = skipped.find((a): a is MismatchRequest => a.kind === 'mismatch');
   const reply: SolveReply = {
     type: 'solved', id, result, text,
@@ -42,9 +42,9 @@ export function stagedSolveReply(id: number, text: string, options: ReplyOptions
     lines: { measures: outline.measures, checks: outline.checks, analyses: outline.analyses },
     solveMs: performance.now() - started,
     ...(mismatch ? { mismatch: mismatchAsk(mismatch, options.library ?? {}) } : {}),
-    ...(finish ? { pending: true } : {}),
+    ...(finishSteps ? { pending: true } : {}),
   };
-  return { reply, finish };
+  return { reply, finishSteps };
 }
 
 function mismatchAsk(request: MismatchRequest, library: LibraryContext): MismatchAsk {

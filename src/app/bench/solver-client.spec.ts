@@ -1,7 +1,7 @@
 import { TestBed } from '@angular/core/testing';
 import type { SolveResult } from '../../../solver';
 import { FINISH_MS, SLOW_MS, SOLVER_WORKER_FACTORY, SolverClient, SPARE_DELAY_MS, type WorkerLike } from './solver-client';
-import { NO_LINES, NO_NAMES, type SolveRequest, type WorkerMessage } from './solver-protocol';
+import { NO_LINES, NO_NAMES, STEP_SLICE_MS, type SolveRequest, type WorkerMessage } from './solver-protocol';
 
 /**
  * jsdom has no Worker: a fake that records what it is sent and answers when told to. Like the
@@ -41,6 +41,11 @@ class FakeWorker implements WorkerLike {
     if (this.terminated) return;
     const result = { title: request.text, temp_c: 27, op: { nodes: {}, sources: {}, parts: {}, devices: {} }, temp: { values_c: [0, 50], runs: [] }, measures: {}, checks: [], warnings: [], errors: [] } as unknown as SolveResult;
     this.onmessage?.({ data: { type: 'completed', id: request.id, result, solveMs: 20 } } as MessageEvent<WorkerMessage>);
+  }
+  /** The second stage of a pending reply gave way to newer text. */
+  drop(request: SolveRequest): void {
+    if (this.terminated) return;
+    this.onmessage?.({ data: { type: 'dropped', id: request.id } } as MessageEvent<WorkerMessage>);
   }
   texts(): string[] {
     return this.sent.map((r) => r.text);
@@ -119,6 +124,60 @@ describe('SolverClient', () => {
     expect(client.reply()?.pending).toBe(false);
     w.answer();
     expect(client.reply()?.result.title).toBe('c');
+  });
+
+  it('waits for a second stage to give way instead of terminating its worker, then lets the newest text solve there', () => {
+    // A 20 ms first stage: the second gives way within a step and a slice, about 28 ms.
+    const w = firstSolve('a', 20);
+    vi.advanceTimersByTime(SPARE_DELAY_MS);
+    FakeWorker.made[1].ready();
+    client.edit('b');
+    vi.advanceTimersByTime(20);
+    w.answer(undefined, { pending: true, solveMs: 20 });
+    const b = w.sent[w.sent.length - 1];
+    client.edit('c');
+    vi.advanceTimersByTime(0);
+    expect(w.texts()).toEqual(['a', 'b', 'c']);
+    expect(w.terminated).toBe(false);
+    vi.advanceTimersByTime(15);
+    w.drop(b);
+    // The worker is on the newest text now: no deadline ends it while it solves.
+    vi.advanceTimersByTime(20 + STEP_SLICE_MS + FINISH_MS + 10);
+    expect(w.terminated).toBe(false);
+    expect(client.abandoned()).toBe(0);
+    w.answer();
+    expect(client.reply()?.result.title).toBe('c');
+  });
+
+  it('still moves newest text to the spare when a second stage would take longer to give way than the spare to start', () => {
+    // A 200 ms first stage: a step of the second stage takes as long; the ready spare wins.
+    const w = firstSolve('a', 200);
+    vi.advanceTimersByTime(SPARE_DELAY_MS);
+    const spare = FakeWorker.made[1].ready();
+    client.edit('b');
+    vi.advanceTimersByTime(200);
+    w.answer(undefined, { pending: true, solveMs: 200 });
+    client.edit('c');
+    vi.advanceTimersByTime(0);
+    expect(w.terminated).toBe(true);
+    expect(spare.texts()).toEqual(['c']);
+  });
+
+  it('counts that the spare would solve with cold code: a stale solve it could outrun on warm code is left to finish', () => {
+    // The page's first solve ran cold (500 ms); warm solves take 60 ms.
+    const w = firstSolve('a', 500);
+    vi.advanceTimersByTime(SPARE_DELAY_MS);
+    const spare = FakeWorker.made[1].ready();
+    client.solveNow('b');
+    vi.advanceTimersByTime(60);
+    w.answer(undefined, { solveMs: 60 });
+    client.solveNow('c');
+    client.edit('d');
+    vi.advanceTimersByTime(0);
+    // Here: 60 ms more of 'c', then 60 for 'd'; on the spare: 500 cold. It stays.
+    expect(w.terminated).toBe(false);
+    expect(spare.texts()).toEqual([]);
+    expect(w.texts()).toEqual(['a', 'b', 'c', 'd']);
   });
 
   it('sends every edit at once, to the worker, with no quiet period to wait for', () => {

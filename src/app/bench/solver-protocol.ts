@@ -116,7 +116,8 @@ export interface SolveReply {
   mismatch?: MismatchAsk;
   /**
    * The analyses that re-solve the circuit many times (`vary`, `temp`, `sensitivity`) are still
-   * to come, in a `completed` message for the same id — unless newer text arrives first.
+   * to come, in a `completed` message for the same id — unless newer text arrives first: the
+   * worker runs them in slices of STEP_SLICE_MS and drops them at a slice's end for newer text.
    */
   pending?: boolean;
   /**
@@ -127,6 +128,12 @@ export interface SolveReply {
   whole?: SolveResult;
 }
 
+/**
+ * The second stage runs in slices of this many ms (plus the step under way: a sweep value, a
+ * sensitivity knob); between slices the worker takes in new requests and drops the stage for one.
+ */
+export const STEP_SLICE_MS = 8;
+
 /** Worker → bench: the whole result of a reply that was `pending`. */
 export interface CompletedMessage {
   type: 'completed';
@@ -136,9 +143,15 @@ export interface CompletedMessage {
   solveMs: number;
 }
 
+/** Worker → bench: the second stage of a `pending` reply was dropped for newer text, which the worker has turned to. */
+export interface DroppedMessage {
+  type: 'dropped';
+  id: number;
+}
+
 /** Worker → bench, once its module has loaded. */
 export interface ReadyMessage {
   type: 'ready';
 }
 
-export type WorkerMessage = SolveReply | CompletedMessage | ReadyMessage;
+export type WorkerMessage = SolveReply | CompletedMessage | DroppedMessage | ReadyMessage;

@@ -2,7 +2,7 @@
  * The solver worker: netlist text in; out, from the solver's one parse of it, the §5 result, the
  * names it defines and its measure and check lines — in two stages when the text asks for
  * analyses that re-solve the circuit many times: everything else first (`pending`), then the
- * whole result (`completed`), skipped when newer text is already waiting.
+ * whole result (`completed`), run in slices and dropped when newer text arrives meanwhile.
  *
  * Requests that wait are coalesced: when several arrive while the worker is busy (or before its
  * module has loaded), only the newest is solved and the older ones get no reply — the bench
@@ -12,6 +12,7 @@
 import { readBlockDocs, type OutlineUse } from '../../../solver';
 import { openBlockCache } from './block-cache';
 import { LibraryResolver } from './library-resolver';
+import { runSteps } from './run-steps';
 import { stagedSolveReply } from './solve-reply';
 import type { SolveRequest, UsedBlock, WorkerMessage } from './solver-protocol';
 
@@ -53,10 +54,12 @@ async function drain(): Promise<void> {
     // The bench's guess of the next solve's time counts the library fetches too.
     scope.postMessage({ ...staged.reply, solveMs: performance.now() - started });
     await new Promise((resolve) => setTimeout(resolve, 0)); // let requests sent during the solve arrive
-    if (staged.finish && !waiting) {
+    if (staged.finishSteps && !waiting) {
       const second = performance.now();
-      const result = staged.finish();
-      scope.postMessage({ type: 'completed', id: request.id, result, solveMs: performance.now() - second });
+      // In slices, dropped for newer text: the bench need not terminate this worker to move on.
+      const result = await runSteps(staged.finishSteps(), () => !!waiting);
+      if (result) scope.postMessage({ type: 'completed', id: request.id, result, solveMs: performance.now() - second });
+      else scope.postMessage({ type: 'dropped', id: request.id });
       await new Promise((resolve) => setTimeout(resolve, 0));
     }
   }
