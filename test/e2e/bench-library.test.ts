@@ -43,6 +43,17 @@ describe('library blocks in the bench', () => {
     const ic = Number(/active\s*(\d+) µA/.exec(rows.find((r) => r.includes('m1.qc')) ?? '')?.[1]);
     expect(ic).toBeGreaterThan(780);
     expect(ic).toBeLessThan(830);
+    // The block's pins and params from the keyboard: F2 with the cursor on the instance's kind
+    // (now that the block has been fetched and solved).
+    await page.locator('.cm-line', { hasText: 'm1: wilson_npn' }).click();
+    await page.keyboard.press('Home');
+    for (let k = 0; k < 7; k++) await page.keyboard.press('ArrowRight');
+    await page.keyboard.press('F2');
+    const help = page.locator('.cm-tooltip.nw-block-doc, .cm-tooltip .nw-block-doc');
+    await help.waitFor({ timeout: 10_000 });
+    expect(await help.textContent()).toContain('rail');
+    await page.keyboard.press('Escape');
+    await expect.poll(() => help.count()).toBe(0);
     await page.close();
   });
 

@@ -1,8 +1,9 @@
 import { EditorState } from '@codemirror/state';
-import { EditorView } from '@codemirror/view';
+import { defaultKeymap } from '@codemirror/commands';
+import { EditorView, keymap } from '@codemirror/view';
 import { readBlockDocs } from '../../../../solver';
 import { NO_NAMES, type LibraryEntry, type NetlistNames, type UsedBlock } from '../solver-protocol';
-import { blockHoverSource, hoverTargetAt, libraryHover } from './library-hover';
+import { blockHoverSource, hoverTargetAt, keyboardHelpOpen, libraryHover, openBlockHelpAtCursor } from './library-hover';
 
 // The start of the seed library's Wilson mirror (library/mirrors/wilson_npn@3.nwl), read by the real parser.
 const WILSON_FILE = `#: Wilson npn current mirror
@@ -140,6 +141,34 @@ describe('block hover', () => {
     expect(await hoverAt(unknown, 1, 6, names)).toBeNull();
     view.destroy();
     unknown.destroy();
+  });
+
+  it('opens the same help from the keyboard at the cursor, and closes it when the cursor moves or on Escape', async () => {
+    const names: NetlistNames = { ...NO_NAMES, uses: [used()] };
+    // Beside the default keymap, as in the bench (its Mod-i and Escape must not take our keys).
+    const view = new EditorView({ state: EditorState.create({ doc: NETLIST, extensions: [keymap.of(defaultKeymap), libraryHover(() => names, () => [])] }) });
+    const source = blockHoverSource(() => names, () => []);
+    const settle = () => new Promise((resolve) => setTimeout(resolve, 0));
+    // The cursor just after `@3` on the use line.
+    view.dispatch({ selection: { anchor: view.state.doc.line(2).to } });
+    expect(openBlockHelpAtCursor(source)(view)).toBe(true);
+    await settle();
+    expect(keyboardHelpOpen(view.state)).toBe(true);
+    view.dispatch({ selection: { anchor: view.state.doc.line(1).from } });
+    expect(keyboardHelpOpen(view.state)).toBe(false);
+    // Over a built-in part's kind there is nothing to show.
+    view.dispatch({ selection: { anchor: view.state.doc.line(15).from + 5 } });
+    openBlockHelpAtCursor(source)(view);
+    await settle();
+    expect(keyboardHelpOpen(view.state)).toBe(false);
+    // The key itself, then Escape.
+    view.dispatch({ selection: { anchor: view.state.doc.line(13).from + 5 } });
+    view.contentDOM.dispatchEvent(new KeyboardEvent('keydown', { key: 'F2', bubbles: true }));
+    await settle();
+    expect(keyboardHelpOpen(view.state)).toBe(true);
+    view.contentDOM.dispatchEvent(new KeyboardEvent('keydown', { key: 'Escape', bubbles: true }));
+    expect(keyboardHelpOpen(view.state)).toBe(false);
+    view.destroy();
   });
 
   it('is an editor extension that loads into a state', () => {

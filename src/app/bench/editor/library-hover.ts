@@ -6,8 +6,8 @@
  * resolved files); blocks written in the netlist itself from its own text with readBlockDocs,
  * loaded on the first such hover so the bench's first paint does not carry the parser.
  */
-import type { Extension, Text } from '@codemirror/state';
-import { hoverTooltip, type EditorView, type Tooltip } from '@codemirror/view';
+import { Prec, StateEffect, StateField, type EditorState, type Extension, type Text } from '@codemirror/state';
+import { hoverTooltip, keymap, showTooltip, type Command, type EditorView, type Tooltip } from '@codemirror/view';
 import { PART_KINDS, readBlockDocs, type BlockDoc } from '../../../../solver';
 import { STATE_CHIP } from '../../library/block-words';
 import type { BlockOrigin, LibraryEntry, NetlistNames, UsedBlock, UsedBlockState } from '../solver-protocol';
@@ -168,7 +168,53 @@ export function blockHoverSource(names: () => NetlistNames, library: () => reado
   };
 }
 
-/** The editor extension: block help on hover. */
+/** Sets (or, with null, closes) the block help opened from the keyboard. */
+const setKeyboardHelp = StateEffect.define<Tooltip | null>();
+
+/** The block help opened from the keyboard: it closes when the text or the cursor moves. */
+const keyboardHelp = StateField.define<Tooltip | null>({
+  create: () => null,
+  update(value, tr) {
+    for (const effect of tr.effects) if (effect.is(setKeyboardHelp)) return effect.value;
+    return tr.docChanged || tr.selection ? null : value;
+  },
+  provide: (field) => showTooltip.from(field),
+});
+
+/** The key that opens the block help at the cursor (listed in the help sheet). */
+export const BLOCK_HELP_KEY = 'F2';
+
+/**
+ * Opens the hover's block help at the cursor, for a keyboard: over a `use` line or the kind of
+ * an instance (the cursor inside the word or just after it). True when there was a word to ask about.
+ */
+export function openBlockHelpAtCursor(source: ReturnType<typeof blockHoverSource>): Command {
+  return (view) => {
+    const head = view.state.selection.main.head;
+    void (async () => {
+      const tip = (await source(view, head)) ?? (head > 0 ? await source(view, head - 1) : null);
+      // Shown only if the cursor has not moved meanwhile.
+      if (tip && view.state.selection.main.head === head) view.dispatch({ effects: setKeyboardHelp.of(tip) });
+    })();
+    return true;
+  };
+}
+
+/** Whether the keyboard's block help is open (for tests). */
+export function keyboardHelpOpen(state: EditorState): boolean {
+  return state.field(keyboardHelp, false) != null;
+}
+
+/** The editor extension: block help on hover, and on BLOCK_HELP_KEY at the cursor (Escape closes it). */
 export function libraryHover(names: () => NetlistNames, library: () => readonly LibraryEntry[]): Extension {
-  return hoverTooltip(blockHoverSource(names, library), { hoverTime: 350 });
+  const source = blockHoverSource(names, library);
+  return [
+    hoverTooltip(source, { hoverTime: 350 }),
+    keyboardHelp,
+    // Ahead of the default keymap, whose Escape would otherwise only simplify the selection.
+    Prec.high(keymap.of([
+      { key: BLOCK_HELP_KEY, run: openBlockHelpAtCursor(source), preventDefault: true },
+      { key: 'Escape', run: (view) => (keyboardHelpOpen(view.state) ? (view.dispatch({ effects: setKeyboardHelp.of(null) }), true) : false) },
+    ])),
+  ];
 }

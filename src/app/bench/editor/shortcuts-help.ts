@@ -14,6 +14,7 @@ export const SHORTCUTS: { keys: string[]; what: string }[] = [
   { keys: [MOD, 'O'], what: 'Open a .nwl file from disk (or drop one on the editor)' },
   { keys: ['F1'], what: 'This help (or ? outside the editor)' },
   { keys: [MOD, 'Space'], what: 'Complete: part kinds, pins, nodes, models, params' },
+  { keys: ['F2'], what: 'Show the pins and params of the block at the cursor (as on hover)' },
   { keys: [MOD, 'Z'], what: 'Undo' },
   { keys: [MOD, 'Shift', 'Z'], what: 'Redo' },
   { keys: [MOD, '/'], what: 'Comment or uncomment the line' },
