@@ -117,4 +117,14 @@ describe('formatTick', () => {
     expect(formatTick(100e3, 'Hz')).toBe('100 kHz');
     expect(formatTick(0.1, 'Hz')).toBe('100 mHz');
   });
+
+  it('writes a tick with no unit (a gain, a ratio) without an SI prefix', () => {
+    expect(formatTick(1200)).toBe('1200');
+    expect(formatTick(1000)).toBe('1000');
+    expect(formatTick(0.25)).toBe('0.25');
+    expect(formatTick(-400)).toBe('-400');
+    expect(formatTick(2e6)).toBe('2 × 10⁶');
+    expect(formatTick(2.5e-4)).toBe('2.5 × 10⁻⁴');
+    expect(formatTick(0)).toBe('0');
+  });
 });

@@ -102,11 +102,18 @@ export function formatQuantity(value: number | undefined | null, unit: Unit | st
 
 /**
  * A short axis label: as few digits as the value needs, e.g. 1000 → "1 kHz", 2.5e6 → "2.5 MHz".
+ * Without a unit (a gain, a ratio) no SI prefix: 1200 → "1200", 2e6 → "2 × 10⁶".
  */
 export function formatTick(value: number, unit: Unit | string = ''): string {
   if (!Number.isFinite(value)) return NO_VALUE;
   if (value === 0) return unit ? `0 ${unit}` : '0';
   const rounded = Number(value.toPrecision(6));
+  if (!unit) {
+    const magnitude = Math.abs(rounded);
+    if (magnitude >= PLAIN_MIN && magnitude < PLAIN_MAX) return String(rounded);
+    const digits = rounded.toExponential().split('e')[0].replace(/[-.]/g, '').length;
+    return powerOfTen(rounded, digits);
+  }
   const { exponent, mantissa } = engineering(rounded, 6);
   const entry = PREFIXES.find(([e]) => e === exponent);
   if (!entry) return `${rounded.toExponential().replace('e+', 'e')}${unit ? ' ' + unit : ''}`;
