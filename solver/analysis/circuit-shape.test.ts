@@ -102,7 +102,7 @@ describe('released AC solvers', () => {
     const a = pair();
     const b = revalued(a, 1.2);
     const at = (c: Circuit) => linearize(c, solved(new NewtonWorkspace(c)));
-    const excitation = { injections: [['outa', { re: 1e-6, im: 0 }]] as [string, { re: number; im: number }][] };
+    const excitation = { injections: new Map([['outa', { re: 1e-6, im: 0 }]]) };
     const first = createAcSolver(at(a));
     first.solve(1e6, [excitation]);
     first.release();

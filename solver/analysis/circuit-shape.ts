@@ -26,7 +26,7 @@ const SHAPES_KEPT = 16;
  * kind, name (branch rows and internal bases are named after parts), nodes, and for a bipolar
  * transistor whether it has a base resistance (an internal base node).
  */
-export function shapeKey(circuit: Circuit): string {
+function shapeKey(circuit: Circuit): string {
   let key = circuit.nodes.join(' ');
   for (const p of circuit.parts) {
     key += `\n${p.kind} ${p.name}`;

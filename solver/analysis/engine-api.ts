@@ -117,7 +117,7 @@ export interface AcSolver {
   /**
    * Hands the solver's LU back for the next solver of the same pattern (a mismatch analysis or a
    * sweep makes one per run). Solutions already returned stay valid; the solver itself throws if
-   * used again. Optional: a solver never released is simply collected.
+   * used again. Calling it is optional: a solver never released is simply collected.
    */
   release(): void;
 }

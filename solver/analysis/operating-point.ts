@@ -54,14 +54,14 @@ export function solveOperatingPoint(circuit: Circuit, start?: OpStart): Operatin
 }
 
 /** Type guard for the failure branch. */
-export function isOpFailure(r: OperatingPoint | OpFailure): r is OpFailure {
+export function isOpFailure<T extends object>(r: T | OpFailure): r is OpFailure {
   return (r as OpFailure).failed === true;
 }
 
 /** The strategy ladder on a prepared workspace (reused by DC sweeps). */
 export function solveWithWorkspace(ws: NewtonWorkspace, start?: OpStart): OperatingPoint | OpFailure {
   const c = converge(ws, start);
-  return 'failed' in c ? c : success(ws, c.x, c.method, c.iterations);
+  return isOpFailure(c) ? c : success(ws, c.x, c.method, c.iterations);
 }
 
 /**
@@ -71,7 +71,7 @@ export function solveWithWorkspace(ws: NewtonWorkspace, start?: OpStart): Operat
  */
 export function solveUnknowns(ws: NewtonWorkspace, start?: OpStart): Float64Array | OpFailure {
   const c = converge(ws, start);
-  return 'failed' in c ? c : c.x;
+  return isOpFailure(c) ? c : c.x;
 }
 
 /** What the ladder converged to. */

@@ -162,22 +162,23 @@ export function inputOffset(circuit: Circuit, ports: PortsRequest, target: numbe
   const ws = borrowWorkspace(moved);
   const outP = nodeRow(ws.layout, ports.outP);
   const outN = ports.outN ? nodeRow(ws.layout, ports.outN) : -1;
+  /** The output's error from the target at a solution of the unknowns. */
+  const errorAt = (x: Float64Array) => (outP >= 0 ? x[outP] : 0) - (outN >= 0 ? x[outN] : 0) - target;
   let warm: Float64Array | undefined;
   const error = (vid: number): number | undefined => {
     movedP.dc = inP.dc + vid / 2;
     movedN.dc = inN.dc - vid / 2;
     // Only the output nodes are read: the unknowns, without the operating-point report.
     const x = solveUnknowns(ws, warm ? { x: warm } : undefined);
-    if (!(x instanceof Float64Array)) return undefined;
+    if (isOpFailure(x)) return undefined;
     warm = x;
-    const out = (outP >= 0 ? x[outP] : 0) - (outN >= 0 ? x[outN] : 0);
-    return out - target;
+    return errorAt(x);
   };
-  // The circuit's own operating point (no input moved) is the search's first point, when given.
-  const atZero = solvedAtZero?.length === ws.n ? solvedAtZero : undefined;
-  if (atZero) warm = atZero;
-  const f0 = atZero ? (outP >= 0 ? atZero[outP] : 0) - (outN >= 0 ? atZero[outN] : 0) - target : error(0);
   try {
+    // The circuit's own operating point (no input moved) is the search's first point, when given.
+    const atZero = solvedAtZero?.length === ws.n ? solvedAtZero : undefined;
+    if (atZero) warm = atZero;
+    const f0 = atZero ? errorAt(atZero) : error(0);
     return f0 === undefined ? undefined : nullingInput(error, f0, admDc, target);
   } finally {
     releaseWorkspace(ws);

@@ -121,7 +121,6 @@ export class MismatchPool {
     for (const h of this.handles) h.answered = false;
     this.job.set({ text, ask, status: 'running', done: 0, total: ask.runs, workers: wanted, answered: 0 });
     if (this.queue.length === 0) return this.finish();
-    for (const h of this.handles) h.pending = 0;
     for (const h of this.handles) this.handOut(h);
   }
 
